@@ -1,0 +1,7 @@
+"""Allow `python -m app`."""
+
+import sys
+
+from app.cli import main
+
+sys.exit(main())

@@ -1,0 +1,42 @@
+"""Errors raised by the engine for input it cannot accept.
+
+Family tree::
+
+    BondgapInputError (ValueError)       bad input: the web layer answers 4xx, the CLI exits 2
+    ├── UnknownElementError              a symbol that is not a chemical element (or beyond Z = 86)
+    ├── FormulaSyntaxError               text that cannot be read as a formula
+    ├── NotOctetCompoundError            a formula that is not an octet binary AB
+    ├── CompositionError                 alloy fractions out of [0, 1] or not summing per site
+    └── UnknownSubstrateError            a substrate name not in the table
+    ConvergenceError (RuntimeError)      a numerical solve that did not converge (not the user's fault)
+
+Every message says what was wrong and what is accepted.
+"""
+
+
+class BondgapInputError(ValueError):
+    """Base class for every kind of input the engine rejects."""
+
+
+class UnknownElementError(BondgapInputError):
+    """A symbol that is not a chemical element the engine covers."""
+
+
+class FormulaSyntaxError(BondgapInputError):
+    """Text that cannot be read as a chemical formula."""
+
+
+class NotOctetCompoundError(BondgapInputError):
+    """A formula that is not an octet binary compound (IV-IV, III-V, II-VI, I-VII)."""
+
+
+class CompositionError(BondgapInputError):
+    """Alloy fractions outside [0, 1], not summing to one per site, or mixing sublattices."""
+
+
+class UnknownSubstrateError(BondgapInputError):
+    """A substrate name that is not in the substrate table."""
+
+
+class ConvergenceError(RuntimeError):
+    """A numerical solve (for example an atomic SCF cycle) that did not converge."""
