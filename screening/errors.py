@@ -8,7 +8,7 @@ Family tree::
     ├── NotOctetCompoundError            a formula that is not an octet binary AB
     ├── CompositionError                 alloy fractions out of [0, 1] or not summing per site
     └── UnknownSubstrateError            a substrate name not in the table
-    ConvergenceError (RuntimeError)      a numerical solve that did not converge (not the user's fault)
+    ConvergenceError (RuntimeError)      a numerical solve that did not converge (not bad input)
 
 Every message says what was wrong and what is accepted.
 """

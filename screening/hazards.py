@@ -1,0 +1,70 @@
+"""Hazard notes for the elements of the catalogue and the precursors used to grow them.
+
+These notes are reminders, not safety data: they name the usual hazards of an element and of
+its common growth precursors (hydrides and metal-organics) and always defer to the safety data
+sheets, local codes and the site's safety rules.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable
+from dataclasses import dataclass
+from typing import Final
+
+CAUTION: Final[str] = (
+    "Follow the safety data sheets, local codes and your site's safety rules for every "
+    "element, compound and precursor; these notes are reminders, not safety data."
+)
+
+
+@dataclass(frozen=True)
+class HazardNote:
+    """The usual hazards of an element and of its growth precursors."""
+
+    element: str
+    toxic: bool
+    note: str
+    precursors: str
+
+
+HAZARDS: Final[dict[str, HazardNote]] = {
+    n.element: n
+    for n in (
+        HazardNote("As", True, "toxic and carcinogenic", "arsine (AsH3): extremely toxic gas"),
+        HazardNote("P", False, "white phosphorus is pyrophoric and toxic",
+                   "phosphine (PH3): highly toxic, pyrophoric gas"),
+        HazardNote("Sb", True, "toxic", "stibine (SbH3): toxic gas; TMSb is pyrophoric"),
+        HazardNote("Cd", True, "toxic and carcinogenic (cadmium compounds)",
+                   "dimethylcadmium: toxic, pyrophoric"),
+        HazardNote("Hg", True, "toxic (vapour and compounds)", "mercury vapour sources"),
+        HazardNote("Pb", True, "toxic", "tetraethyllead: toxic"),
+        HazardNote("Tl", True, "highly toxic", "thallium metal-organics: highly toxic"),
+        HazardNote("Be", True, "toxic and carcinogenic dust (beryllium and BeO)",
+                   "beryllium sources: dust control required"),
+        HazardNote("Se", True, "toxic", "hydrogen selenide (H2Se): extremely toxic gas"),
+        HazardNote("Te", True, "toxic", "hydrogen telluride, DETe/DIPTe: toxic"),
+        HazardNote("S", False, "", "hydrogen sulfide (H2S): toxic gas"),
+        HazardNote("N", False, "", "ammonia (NH3): toxic, corrosive gas"),
+        HazardNote("B", False, "", "diborane (B2H6): toxic, pyrophoric gas"),
+        HazardNote("Si", False, "", "silane (SiH4): pyrophoric gas"),
+        HazardNote("Ge", False, "", "germane (GeH4): toxic, flammable gas"),
+        HazardNote("Ga", False, "", "trimethylgallium (TMGa): pyrophoric"),
+        HazardNote("Al", False, "", "trimethylaluminium (TMAl): pyrophoric"),
+        HazardNote("In", False, "", "trimethylindium (TMIn): pyrophoric"),
+        HazardNote("Zn", False, "", "diethylzinc (DEZn): pyrophoric"),
+        HazardNote("Ba", True, "soluble barium compounds are toxic", ""),
+        HazardNote("F", True, "fluorides can release hydrogen fluoride (HF): toxic, corrosive",
+                   ""),
+    )
+}
+"""Hazard notes by element (common practice, no single source; defer to safety data sheets)."""
+
+
+def hazard_notes(elements: Iterable[str]) -> list[HazardNote]:
+    """Hazard notes for the given elements, in the order given (elements without one skipped)."""
+    return [HAZARDS[e] for e in elements if e in HAZARDS]
+
+
+def toxic_elements(elements: Iterable[str]) -> list[str]:
+    """The given elements that are toxic in themselves."""
+    return [n.element for n in hazard_notes(elements) if n.toxic]

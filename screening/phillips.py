@@ -1,0 +1,170 @@
+"""Phillips-Van Vechten dielectric theory of the octet bond: Eh, C, Eg and ionicity fi.
+
+The average (Penn) gap Eg of the valence-conduction manifold splits into a homopolar part Eh
+(set by the bond length) and a heteropolar part C (set by the charge transfer):
+Eg^2 = Eh^2 + C^2, ionicity fi = C^2 / Eg^2.
+
+Two routes give C:
+
+* spectroscopic: Eg from the measured high-frequency dielectric constant,
+  eps_inf - 1 = (hbar omega_p / Eg)^2 D A, then C = sqrt(Eg^2 - Eh^2);
+* predictive: the screened Coulomb difference of the two atomic cores,
+  C = b e^2 |Z_A/r_A - Z_B/r_B| exp(-k_s d/2), from atomic data and the bond length only.
+
+References: J. C. Phillips, Phys. Rev. Lett. 20, 550 (1968); J. A. Van Vechten, Phys. Rev.
+182, 891 (1969) and 187, 1007 (1969); J. C. Phillips, Rev. Mod. Phys. 42, 317 (1970);
+D. R. Penn, Phys. Rev. 128, 2093 (1962). Energies in eV, lengths in angstrom.
+
+Calibrations of ours (constants in `PhillipsCalibration`):
+* the d-electron factor D: D of a row fixed by that row's group-IV element (Ge, alpha-Sn)
+  so that its eps_inf is reproduced with Eg = Eh; D = 1 for atoms without a shallow filled d
+  shell; for a compound D = D_av - (D_av - 1) z (Z_B - Z_A)^2;
+* the radii of the predictive route: the covalent radius of the atom's period (half the bond
+  length of the period's group-IV crystal: C, Si, Ge, alpha-Sn; Pauling's tetrahedral Pb
+  radius for period 6), with Phillips' prefactor b = 1.5.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+from numpy.typing import ArrayLike, NDArray
+
+from screening.constants import BOHR_ANGSTROM, E2_EV_ANGSTROM
+
+HBAR2_OVER_M_EXACT: float = 7.619964
+"""hbar^2/m_e in eV A^2 (CODATA 2018), for the plasma and Fermi energies."""
+
+HOMOPOLAR_PREFACTOR_EV: float = 39.74
+"""Eh = 39.74 d^-2.48 eV with d in angstrom (Van Vechten 1969; Phillips 1970)."""
+
+HOMOPOLAR_EXPONENT: float = 2.48
+
+CRITICAL_IONICITY: float = 0.785
+"""Phillips' critical ionicity: fourfold below, sixfold above (Rev. Mod. Phys. 42, 317)."""
+
+
+@dataclass(frozen=True)
+class PhillipsCalibration:
+    """The calibration constants of the two routes, in one place (ours unless noted)."""
+
+    d_reduction_z: float = 1.0 / 45.0
+    """z in D = D_av - (D_av - 1) z dZ^2 (a reconstruction of Van Vechten's reduction)."""
+    d_row6_extrapolated: bool = True
+    """Row-6 D by linear extrapolation from rows 4 and 5 (no group-IV element to fix it)."""
+    screening_prefactor_b: float = 1.5
+    """b of the predictive C (Phillips 1970)."""
+    period_radius_pb_angstrom: float = 1.46
+    """Period-6 radius: Pauling's tetrahedral radius of Pb (1960; from memory)."""
+
+
+@dataclass(frozen=True)
+class PhillipsResult:
+    """Eh, C, Eg (eV) and fi, arrays over compounds. NaN where the route does not apply."""
+
+    homopolar_gap_eV: NDArray[np.float64]
+    heteropolar_gap_eV: NDArray[np.float64]
+    average_gap_eV: NDArray[np.float64]
+    ionicity: NDArray[np.float64]
+
+
+def homopolar_gap(d_angstrom: ArrayLike) -> NDArray[np.float64]:
+    """Homopolar gap Eh in eV for bond length d in angstrom."""
+    return HOMOPOLAR_PREFACTOR_EV * np.asarray(d_angstrom, dtype=float) ** -HOMOPOLAR_EXPONENT
+
+
+def electron_gas(volume_per_pair_angstrom3: ArrayLike) -> tuple[NDArray[np.float64], ...]:
+    """Valence electron gas of eight electrons per pair.
+
+    Returns:
+        (plasma energy hbar omega_p in eV, Fermi energy in eV, Fermi wave number k_F in 1/A,
+        Thomas-Fermi screening wave number k_s in 1/A).
+    """
+    n = 8.0 / np.asarray(volume_per_pair_angstrom3, dtype=float)
+    plasma = np.sqrt(4.0 * np.pi * n * E2_EV_ANGSTROM * HBAR2_OVER_M_EXACT)
+    k_f = np.cbrt(3.0 * np.pi**2 * n)
+    fermi = HBAR2_OVER_M_EXACT * k_f**2 / 2.0
+    k_s = np.sqrt(4.0 * k_f / (np.pi * BOHR_ANGSTROM))
+    return plasma, fermi, k_f, k_s
+
+
+def penn_factor(gap_eV: ArrayLike, fermi_eV: ArrayLike) -> NDArray[np.float64]:
+    """Penn's correction A = 1 - B + B^2/3 with B = Eg / (4 E_F)."""
+    b = np.asarray(gap_eV, dtype=float) / (4.0 * np.asarray(fermi_eV, dtype=float))
+    return 1.0 - b + b * b / 3.0
+
+
+def spectroscopic_average_gap(
+    eps_inf: ArrayLike, plasma_eV: ArrayLike, fermi_eV: ArrayLike, d_factor: ArrayLike,
+    iterations: int = 60,
+) -> NDArray[np.float64]:
+    """Average gap Eg in eV from eps_inf - 1 = (hbar omega_p / Eg)^2 D A(Eg) (fixed point).
+
+    NaN where eps_inf is NaN or not above 1.
+    """
+    eps = np.asarray(eps_inf, dtype=float)
+    plasma = np.asarray(plasma_eV, dtype=float)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        scale = np.where(eps > 1.0, plasma * np.sqrt(np.asarray(d_factor) / (eps - 1.0)), np.nan)
+        gap = scale.copy()
+        for _ in range(iterations):  # contraction: |dA/dEg| * Eg / 2 A << 1
+            gap = scale * np.sqrt(penn_factor(gap, fermi_eV))
+    return gap
+
+
+def row_d_factor(
+    row: ArrayLike, d_row4: float, d_row5: float, extrapolate_row6: bool = True
+) -> NDArray[np.float64]:
+    """D of an atom in a row with a shallow filled d shell: 1 for rows <= 3."""
+    r = np.asarray(row)
+    d_row6 = 2.0 * d_row5 - d_row4 if extrapolate_row6 else d_row5
+    return np.select([r <= 3, r == 4, r == 5], [1.0, d_row4, d_row5], d_row6)
+
+
+def compound_d_factor(
+    d_cation: ArrayLike, d_anion: ArrayLike, valence_difference: ArrayLike, z: float
+) -> NDArray[np.float64]:
+    """D = D_av - (D_av - 1) z dZ^2 for a compound (calibration of ours, see module doc)."""
+    d_av = (np.asarray(d_cation, dtype=float) + np.asarray(d_anion, dtype=float)) / 2.0
+    dz2 = np.asarray(valence_difference, dtype=float) ** 2
+    return d_av - (d_av - 1.0) * z * dz2
+
+
+def d_factor_of_element(eps_inf: float, d_angstrom: float) -> float:
+    """D that reproduces a group-IV element's eps_inf with Eg = Eh (C = 0)."""
+    eh = float(homopolar_gap(d_angstrom))
+    a = d_angstrom * 4.0 / np.sqrt(3.0)
+    plasma, fermi, _, _ = electron_gas(a**3 / 4.0)
+    return float((eps_inf - 1.0) * eh**2 / (plasma**2 * penn_factor(eh, fermi)))
+
+
+def spectroscopic(
+    d_angstrom: ArrayLike, volume_per_pair_angstrom3: ArrayLike, eps_inf: ArrayLike,
+    d_factor: ArrayLike,
+) -> PhillipsResult:
+    """The spectroscopic route: Eg from eps_inf, C = sqrt(Eg^2 - Eh^2) (0 if Eg < Eh)."""
+    eh = homopolar_gap(d_angstrom)
+    plasma, fermi, _, _ = electron_gas(volume_per_pair_angstrom3)
+    eg = spectroscopic_average_gap(eps_inf, plasma, fermi, d_factor)
+    c = np.sqrt(np.clip(eg**2 - eh**2, 0.0, None))
+    eg = np.sqrt(eh**2 + c**2)
+    eh = np.where(np.isnan(c), np.nan, eh)
+    return PhillipsResult(eh, c, eg, c**2 / eg**2)
+
+
+def predictive(
+    d_angstrom: ArrayLike, volume_per_pair_angstrom3: ArrayLike,
+    valence_cation: ArrayLike, valence_anion: ArrayLike,
+    radius_cation_angstrom: ArrayLike, radius_anion_angstrom: ArrayLike,
+    prefactor_b: float,
+) -> PhillipsResult:
+    """The predictive route: C = b e^2 |Z_A/r_A - Z_B/r_B| exp(-k_s d/2)."""
+    d = np.asarray(d_angstrom, dtype=float)
+    eh = homopolar_gap(d)
+    _, _, _, k_s = electron_gas(volume_per_pair_angstrom3)
+    za, zb = np.asarray(valence_cation, float), np.asarray(valence_anion, float)
+    ra, rb = np.asarray(radius_cation_angstrom, float), np.asarray(radius_anion_angstrom, float)
+    c = prefactor_b * E2_EV_ANGSTROM * np.abs(zb / rb - za / ra) * np.exp(-k_s * d / 2.0)
+    eg = np.sqrt(eh**2 + c**2)
+    return PhillipsResult(eh, c, eg, c**2 / eg**2)

@@ -1,0 +1,115 @@
+"""The compound report: one JSON-ready dict per compound (see docs/report-schema.md).
+
+`compound_report` and `catalogue_reports` are what the store, the API and the CLI show; the
+keys are a public contract.
+"""
+
+from __future__ import annotations
+
+import math
+from typing import Any
+
+from screening import MODEL_VERSION
+from screening.evaluate import CatalogueTable, catalogue_table
+from screening.formula import parse_compound
+from screening.hazards import CAUTION, hazard_notes
+from screening.phillips import PhillipsResult
+from screening.reference import Measured
+
+
+def _float(value: Any) -> float | None:
+    number = float(value)
+    return number if math.isfinite(number) else None
+
+
+def _measured(item: Measured | None) -> dict[str, Any] | None:
+    if item is None:
+        return None
+    return {"value": item.value, "unit": item.unit, "source": item.source,
+            "from_memory": item.from_memory, "note": item.note}
+
+
+def _phillips(result: PhillipsResult, i: int) -> dict[str, float | None] | None:
+    if not math.isfinite(float(result.ionicity[i])):
+        return None
+    return {
+        "homopolar_gap_eV": _float(result.homopolar_gap_eV[i]),
+        "heteropolar_gap_eV": _float(result.heteropolar_gap_eV[i]),
+        "average_gap_eV": _float(result.average_gap_eV[i]),
+        "ionicity": _float(result.ionicity[i]),
+    }
+
+
+def _report(table: CatalogueTable, i: int) -> dict[str, Any]:
+    compound = table.compounds[i]
+    measured = table.measured[i]
+    bonds = table.bonds
+    notes = hazard_notes(compound.elements)
+    return {
+        "formula": compound.formula,
+        "family": compound.family,
+        "cation": compound.cation,
+        "anion": compound.anion,
+        "model_version": MODEL_VERSION,
+        "structure": {
+            "observed": table.structure[i],
+            "source": measured["structure"].source if "structure" in measured else None,
+        },
+        "lattice_constant_angstrom": _float(table.lattice_constant_angstrom[i]),
+        "lattice_c_angstrom": _float(table.lattice_c_angstrom[i]),
+        "bond_length_angstrom": _float(table.bond_length_measured_angstrom[i]),
+        "bond_length_estimated_angstrom": _float(table.bond_length_estimated_angstrom[i]),
+        "bond_length_used_angstrom": _float(table.bond_length_used_angstrom[i]),
+        "measured": {
+            "band_gap_eV": _measured(measured.get("band_gap")),
+            "gap_kind": _measured(measured.get("gap_kind")),
+            "eps_inf": _measured(measured.get("eps_inf")),
+            "lattice_a": _measured(measured.get("lattice_a")),
+            "lattice_c": _measured(measured.get("lattice_c")),
+        },
+        "phillips": {
+            "spectroscopic": _phillips(table.spectroscopic, i),
+            "predictive": _phillips(table.predictive, i),
+        },
+        "harrison": {
+            "covalent_energy_eV": _float(bonds.covalent_energy_eV[i]),
+            "polar_energy_eV": _float(bonds.polar_energy_eV[i]),
+            "metallic_energy_eV": _float(bonds.metallic_energy_eV[i]),
+            "metallic_energy_cation_eV": _float(bonds.metallic_energy_cation_eV[i]),
+            "metallic_energy_anion_eV": _float(bonds.metallic_energy_anion_eV[i]),
+            "polarity": _float(bonds.polarity[i]),
+            "covalency": _float(bonds.covalency[i]),
+            "hybrid_energy_cation_eV": _float(bonds.hybrid_energy_cation_eV[i]),
+            "hybrid_energy_anion_eV": _float(bonds.hybrid_energy_anion_eV[i]),
+            "bonding_eV": _float(bonds.bonding_eV[i]),
+            "antibonding_eV": _float(bonds.antibonding_eV[i]),
+        },
+        "coordination": {
+            "predicted": table.coordination_predicted[i],
+            "route": table.coordination_route[i],
+            "observed": table.coordination_observed[i],
+        },
+        "hazards": {
+            "elements": [n.element for n in notes if n.toxic],
+            "notes": [{"element": n.element, "toxic": n.toxic, "note": n.note,
+                       "precursors": n.precursors} for n in notes],
+            "caution": CAUTION if notes else None,
+        },
+    }
+
+
+def normalise_formula(text: str) -> str:
+    """Normalised formula of an octet binary (raises `BondgapInputError` subclasses)."""
+    return parse_compound(text).formula
+
+
+def compound_report(formula: str) -> dict[str, Any]:
+    """The report of one compound, from any accepted spelling of its formula."""
+    table = catalogue_table()
+    return _report(table, table.index(normalise_formula(formula)))
+
+
+def catalogue_reports() -> list[dict[str, Any]]:
+    """Reports for every catalogue compound, in catalogue order."""
+    table = catalogue_table()
+    return [_report(table, i) for i in range(len(table.compounds))]
