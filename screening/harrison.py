@@ -2,7 +2,8 @@
 
 Each atom forms four sp3 hybrids, eps_h = (eps_s + 3 eps_p)/4. Two hybrids pointing at each
 other along a bond form a two-level problem with off-diagonal -V2 (covalent energy) and
-on-site energies eps_h^cation, eps_h^anion, whose half difference is the polar energy V3.
+on-site energies eps_h^cation, eps_h^anion, whose half difference is the polar energy V3
+(taken positive).
 Its solutions are the bonding and antibonding levels
 eps_b,a = (eps_h^c + eps_h^a)/2 -/+ sqrt(V2^2 + V3^2); the polarity
 alpha_p = V3 / sqrt(V2^2 + V3^2) and the covalency alpha_c = V2 / sqrt(V2^2 + V3^2) follow.
@@ -100,7 +101,7 @@ def bond_orbitals(
     sa, pa = np.asarray(eps_s_anion_eV, float), np.asarray(eps_p_anion_eV, float)
     hc, ha = hybrid_energy(sc, pc), hybrid_energy(sa, pa)
     v2 = covalent_energy(d_angstrom, eta)
-    v3 = (hc - ha) / 2.0
+    v3 = np.abs(hc - ha) / 2.0
     half_splitting = np.hypot(v2, v3)
     middle = (hc + ha) / 2.0
     return BondOrbitals(
