@@ -1,0 +1,72 @@
+"""`bondgap levels SYMBOL [SYMBOL ...]`: LDA orbital energies (term values) of free atoms."""
+
+from __future__ import annotations
+
+import argparse
+import json
+from typing import Any
+
+from screening.atoms import AtomLevels, atom_levels, valence_s_p
+
+
+def register(sub: argparse._SubParsersAction) -> None:
+    """Add the `levels` sub-command."""
+    parser = sub.add_parser(
+        "levels",
+        help="LDA orbital energies (term values) of free atoms",
+        description="Print each element's ground-state configuration and its valence s and p "
+        "LDA orbital energies in eV (occupied or not), from the committed table of the "
+        "all-electron atom solver (H to Rn). --all adds the core and d/f levels.",
+    )
+    parser.add_argument("symbols", nargs="+", metavar="SYMBOL", help="element symbol, e.g. Zn")
+    parser.add_argument("--json", action="store_true", help="print a JSON list")
+    parser.add_argument(
+        "--all", action="store_true", help="list every occupied level, core included"
+    )
+    parser.set_defaults(func=run)
+
+
+def _shown_levels(atom: AtomLevels, show_all: bool) -> list[dict[str, Any]]:
+    """The levels to print: all of them, or the valence s and p."""
+    if show_all:
+        chosen = list(atom.levels)
+    else:
+        chosen = [atom.level(shell.label) for shell in valence_s_p(atom.Z)]
+    return [
+        {"orbital": lv.orbital, "occupation": lv.occupation, "energy_eV": lv.energy_eV}
+        for lv in chosen
+    ]
+
+
+def render_text(atoms: list[AtomLevels], show_all: bool) -> str:
+    """Plain-text listing: one header line per element, one line per level."""
+    lines: list[str] = []
+    for atom in atoms:
+        lines.append(f"{atom.element} (Z = {atom.Z})  {atom.configuration}")
+        for level in _shown_levels(atom, show_all):
+            note = ""
+            if not level["occupation"]:
+                note = "  (unoccupied)" if level["energy_eV"] < 0 else "  (unoccupied, not bound)"
+            lines.append(
+                f"  {level['orbital']:<3} occupation {level['occupation']:>4g}"
+                f"  {level['energy_eV']:>12.4f} eV{note}"
+            )
+    return "\n".join(lines)
+
+
+def run(args: argparse.Namespace) -> int:
+    """Print the levels of every requested element (text or JSON)."""
+    atoms = [atom_levels(symbol) for symbol in args.symbols]  # all validated before printing
+    if args.json:
+        payload = [
+            {
+                "element": atom.element,
+                "configuration": atom.configuration,
+                "levels": _shown_levels(atom, args.all),
+            }
+            for atom in atoms
+        ]
+        print(json.dumps(payload, indent=2))
+    else:
+        print(render_text(atoms, args.all))
+    return 0

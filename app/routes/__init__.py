@@ -1,0 +1,1 @@
+"""HTTP routes: `pages` (HTML) and `api` (JSON), both built on `app.queries`."""

@@ -1,0 +1,67 @@
+"""The JSON API under /api/: the same functions that build the pages, as JSON (and CSV)."""
+
+from __future__ import annotations
+
+from typing import Annotated, Any
+
+from fastapi import APIRouter, Path
+from fastapi.responses import PlainTextResponse
+
+import screening
+from app import queries
+from app.deps import SessionDep, TableQueryDep
+
+router = APIRouter(prefix="/api", tags=["compounds"])
+
+ERRORS: dict[int | str, dict[str, Any]] = {
+    400: {"description": 'Bad input, as {"detail": "what was wrong and what is accepted"}'},
+    422: {"description": 'A parameter of the wrong type, as {"detail": "desc: ..."}'},
+}
+FormulaPath = Annotated[
+    str, Path(description="Formula of an octet binary compound, e.g. GaAs, ZnSe, Si")
+]
+
+
+@router.get("/compounds", responses=ERRORS, summary="Compound table")
+def list_compounds(session: SessionDep, query: TableQueryDep) -> dict[str, Any]:
+    """The compound table: filtered, sorted rows (as bondgap list --json).
+
+    Empty values sort last in either direction. The gap window applies to the measured band gap.
+    """
+    return queries.table_payload(session, query=query)
+
+
+@router.get(
+    "/compounds.csv",
+    responses=ERRORS,
+    response_class=PlainTextResponse,
+    summary="Compound table as CSV",
+)
+def list_compounds_csv(session: SessionDep, query: TableQueryDep) -> PlainTextResponse:
+    """The same rows as CSV (as bondgap list --csv)."""
+    text = queries.rows_csv(queries.table_rows(session, query=query))
+    return PlainTextResponse(
+        text,
+        media_type="text/csv; charset=utf-8",
+        headers={"Content-Disposition": 'attachment; filename="bondgap-compounds.csv"'},
+    )
+
+
+@router.get("/compounds/{formula:path}", responses=ERRORS, summary="One compound")
+def get_compound(session: SessionDep, formula: FormulaPath) -> dict[str, Any]:
+    """Everything known about one compound (as bondgap show FORMULA --json).
+
+    The object follows docs/report-schema.md; any spelling of the formula is accepted
+    (AsGa gives GaAs).
+    """
+    return queries.compound_report(session, formula=formula)
+
+
+@router.get("/status", summary="Versions and counts")
+def status(session: SessionDep) -> dict[str, Any]:
+    """Engine version, version of the stored results, and how many compounds are stored."""
+    return {
+        "model_version": screening.MODEL_VERSION,
+        "stored_model_version": queries.model_version(session),
+        "compounds": queries.compound_count(session),
+    }

@@ -1,0 +1,94 @@
+"""HTML pages: the compound table, one page per compound, and the API reference."""
+
+from __future__ import annotations
+
+from typing import Any
+from urllib.parse import quote, urlencode
+
+from fastapi import APIRouter, Request
+from fastapi.responses import RedirectResponse, Response
+
+from app import queries, views
+from app.columns import COLUMNS
+from app.deps import SessionDep, TableQueryDep
+
+router = APIRouter(include_in_schema=False)
+
+
+def _render(request: Request, name: str, context: dict[str, Any]) -> Response:
+    return request.app.state.templates.TemplateResponse(request, name, context)
+
+
+def _url_params(query: queries.TableQuery) -> dict[str, Any]:
+    """The query's parameters for a link (booleans spelled as in a form: "true")."""
+    return {k: "true" if v is True else v for k, v in query.as_params().items()}
+
+
+def _sort_headers(query: queries.TableQuery) -> list[dict[str, Any]]:
+    """Header cells of the table: each column with the link that sorts by it."""
+    headers = []
+    for column in COLUMNS:
+        if not column.shown:
+            continue
+        active = query.sort == column.key
+        params = {**_url_params(query), "sort": column.key}
+        params.pop("desc", None)
+        if active and not query.desc:
+            params["desc"] = "true"
+        aria = ("descending" if query.desc else "ascending") if active else "none"
+        headers.append({"column": column, "url": "/compounds?" + urlencode(params),
+                        "aria_sort": aria})
+    return headers
+
+
+@router.get("/")
+def home() -> RedirectResponse:
+    """The table is the home page."""
+    return RedirectResponse("/compounds", status_code=307)
+
+
+@router.get("/compounds")
+def compounds_page(request: Request, session: SessionDep, query: TableQueryDep) -> Response:
+    """The compound table, filtered and sorted by the URL's parameters."""
+    rows = queries.table_rows(session, query=query)
+    hazards = {e for row in rows for e in row["hazard_elements"]}
+    params = _url_params(query)
+    return _render(request, "compounds.html", {
+        "rows": rows,
+        "headers": _sort_headers(query),
+        "query": query,
+        "total": queries.compound_count(session),
+        "families": queries.FAMILY_CHOICES,
+        "structures": queries.STRUCTURE_CHOICES,
+        "csv_url": "/api/compounds.csv" + ("?" + urlencode(params) if params else ""),
+        "json_url": "/api/compounds" + ("?" + urlencode(params) if params else ""),
+        "caution": views.caution_line(hazards),
+        "stored_model_version": queries.model_version(session),
+    })
+
+
+@router.get("/compounds/{formula:path}")
+def compound_page(request: Request, session: SessionDep, formula: str) -> Response:
+    """Everything about one compound: numbers with unit, route and source; two charts."""
+    report = queries.compound_report(session, formula=formula)
+    if report["formula"] != formula:
+        return RedirectResponse("/compounds/" + quote(report["formula"]), status_code=307)
+    charts = {
+        "ehc": views.eh_c_chart(queries.all_reports(session), formula=report["formula"]),
+        "levels": views.bond_levels_chart(report),
+    }
+    return _render(request, "compound.html", {
+        "report": report,
+        "sections": views.report_sections(report),
+        "charts": charts,
+        "hazard_caution": views.caution_line(report.get("hazards", {}).get("elements") or ()),
+        "hazard_notes": report.get("hazards", {}).get("notes") or [],
+        "json_url": "/api/compounds/" + quote(report["formula"]),
+    })
+
+
+@router.get("/api/docs")
+def api_docs(request: Request) -> Response:
+    """The API reference, rendered from the app's own OpenAPI document (works offline)."""
+    spec = request.app.openapi()
+    return _render(request, "api_docs.html", {"spec": spec})

@@ -1,0 +1,256 @@
+"""The store: a SQLite file holding the engine's results, kept in step with the engine.
+
+Data flows one way: `seed_data/` -> `screening` (the engine) -> this store -> pages, API, CLI.
+
+Tables (the schema is owned by the Alembic revisions in `app/migrations/versions/`):
+
+    store_meta          key/value pairs; `model_version` is the engine version of the results
+    compound_results    one row per catalogue compound: indexed scalars for sorting and
+                        filtering, plus the engine's full report as JSON text
+
+`open_store` migrates the file to the newest schema, then recomputes `compound_results` in one
+transaction when the stored model version differs from `screening.MODEL_VERSION`. Tables other
+than `compound_results` and `store_meta` (the user's own, added by later revisions) are never
+written here.
+
+Every connection runs with WAL journaling, foreign keys on and a busy timeout.
+"""
+
+from __future__ import annotations
+
+import json
+import sqlite3
+from collections.abc import Callable, Iterable
+from datetime import UTC, datetime
+from pathlib import Path
+from typing import Any
+
+from sqlalchemy import (
+    URL,
+    Connection,
+    Engine,
+    Float,
+    String,
+    Table,
+    Text,
+    create_engine,
+    delete,
+    event,
+    select,
+)
+from sqlalchemy.dialects.sqlite import Insert
+from sqlalchemy.dialects.sqlite import insert as sqlite_insert
+from sqlalchemy.exc import DBAPIError
+from sqlalchemy.orm import DeclarativeBase, Mapped, mapped_column, sessionmaker
+
+import screening
+
+WRITE_LOCK = "bondgap_write_lock"
+"""Execution option: start the transaction with `BEGIN IMMEDIATE` (take the write lock first)."""
+
+
+class StoreError(RuntimeError):
+    """The database file cannot be opened or migrated (not the user's input, but their file)."""
+
+
+class Base(DeclarativeBase):
+    """Declarative base of every table; `Base.metadata` is what the migrations must match."""
+
+
+class StoreMeta(Base):
+    """Key/value facts about the stored results (for example `model_version`)."""
+
+    __tablename__ = "store_meta"
+
+    key: Mapped[str] = mapped_column(String(64), primary_key=True)
+    value: Mapped[str] = mapped_column(Text)
+
+
+class CompoundResult(Base):
+    """The engine's report on one compound, with the columns the table sorts and filters on.
+
+    The formula (normalised by the engine) is the primary key, so rows keep their identity
+    when results are recomputed and later tables can refer to them by formula.
+    """
+
+    __tablename__ = "compound_results"
+
+    formula: Mapped[str] = mapped_column(String(32), primary_key=True)
+    family: Mapped[str] = mapped_column(String(8), index=True)
+    cation: Mapped[str] = mapped_column(String(3))
+    anion: Mapped[str] = mapped_column(String(3))
+    structure_observed: Mapped[str | None] = mapped_column(String(32), index=True)
+    gap_measured_ev: Mapped[float | None] = mapped_column(Float, index=True)
+    gap_kind: Mapped[str | None] = mapped_column(String(16))
+    eps_inf: Mapped[float | None] = mapped_column(Float)
+    lattice_constant_angstrom: Mapped[float | None] = mapped_column(Float, index=True)
+    bond_length_angstrom: Mapped[float | None] = mapped_column(Float)
+    ionicity_spectroscopic: Mapped[float | None] = mapped_column(Float, index=True)
+    ionicity_predictive: Mapped[float | None] = mapped_column(Float, index=True)
+    polarity: Mapped[float | None] = mapped_column(Float)
+    covalent_energy_ev: Mapped[float | None] = mapped_column(Float)
+    polar_energy_ev: Mapped[float | None] = mapped_column(Float)
+    coordination_predicted: Mapped[str | None] = mapped_column(String(16))
+    coordination_observed: Mapped[str | None] = mapped_column(String(16))
+    hazard_elements: Mapped[str] = mapped_column(String(64), default="")
+    model_version: Mapped[str] = mapped_column(String(32))
+    report_json: Mapped[str] = mapped_column(Text)
+
+
+def _dig(mapping: Any, *keys: str) -> Any:
+    """Follow `keys` into nested dicts; None as soon as a level is missing or null."""
+    for key in keys:
+        if not isinstance(mapping, dict):
+            return None
+        mapping = mapping.get(key)
+    return mapping
+
+
+def row_values(report: dict[str, Any]) -> dict[str, Any]:
+    """Map one engine report (docs/report-schema.md) to the values of its `compound_results` row.
+
+    Args:
+        report: The dict from `screening.report.compound_report`.
+
+    Returns:
+        Column name -> value, including `report_json`.
+    """
+    return {
+        "formula": report["formula"],
+        "family": report["family"],
+        "cation": report["cation"],
+        "anion": report["anion"],
+        "structure_observed": _dig(report, "structure", "observed"),
+        "gap_measured_ev": _dig(report, "measured", "band_gap_eV", "value"),
+        "gap_kind": _dig(report, "measured", "gap_kind", "value"),
+        "eps_inf": _dig(report, "measured", "eps_inf", "value"),
+        "lattice_constant_angstrom": report.get("lattice_constant_angstrom"),
+        "bond_length_angstrom": report.get("bond_length_used_angstrom"),
+        "ionicity_spectroscopic": _dig(report, "phillips", "spectroscopic", "ionicity"),
+        "ionicity_predictive": _dig(report, "phillips", "predictive", "ionicity"),
+        "polarity": _dig(report, "harrison", "polarity"),
+        "covalent_energy_ev": _dig(report, "harrison", "covalent_energy_eV"),
+        "polar_energy_ev": _dig(report, "harrison", "polar_energy_eV"),
+        "coordination_predicted": _dig(report, "coordination", "predicted"),
+        "coordination_observed": _dig(report, "coordination", "observed"),
+        "hazard_elements": ",".join(_dig(report, "hazards", "elements") or ()),
+        "model_version": report.get("model_version", screening.MODEL_VERSION),
+        "report_json": json.dumps(report, ensure_ascii=False, sort_keys=True),
+    }
+
+
+def make_engine(db_path: Path) -> Engine:
+    """Create the SQLAlchemy engine for one database file (the file is created on first use).
+
+    Connections get WAL journaling, foreign keys, a 10 s busy timeout, and transactions that
+    SQLAlchemy begins itself (so DDL is transactional and `WRITE_LOCK` can ask for
+    `BEGIN IMMEDIATE`).
+    """
+    db_path.parent.mkdir(parents=True, exist_ok=True)
+    engine = create_engine(
+        URL.create("sqlite", database=str(db_path)),
+        connect_args={"check_same_thread": False, "timeout": 10},
+    )
+
+    @event.listens_for(engine, "connect")
+    def _on_connect(dbapi_connection: sqlite3.Connection, _record: object) -> None:
+        dbapi_connection.isolation_level = None  # SQLAlchemy emits BEGIN below
+        for pragma in ("journal_mode=WAL", "foreign_keys=ON", "busy_timeout=10000"):
+            dbapi_connection.execute(f"PRAGMA {pragma}")
+
+    @event.listens_for(engine, "begin")
+    def _on_begin(conn: Connection) -> None:
+        immediate = conn.get_execution_options().get(WRITE_LOCK, False)
+        conn.exec_driver_sql("BEGIN IMMEDIATE" if immediate else "BEGIN")
+
+    return engine
+
+
+def _version_in(conn: Connection) -> str | None:
+    """The stored model version, read on an open connection (inside its transaction)."""
+    return conn.scalar(select(StoreMeta.value).where(StoreMeta.key == "model_version"))
+
+
+def stored_model_version(engine: Engine) -> str | None:
+    """Return the engine version the stored results were computed with (None if never)."""
+    with engine.connect() as conn:
+        return _version_in(conn)
+
+
+def _upsert(table: Table, key: str) -> Insert:
+    """INSERT ... ON CONFLICT(key) DO UPDATE every other column (rows keep their identity)."""
+    stmt = sqlite_insert(table)
+    others = {c.name: stmt.excluded[c.name] for c in table.c if c.name != key}
+    return stmt.on_conflict_do_update(index_elements=[key], set_=others)
+
+
+def refresh_results(
+    engine: Engine,
+    *,
+    model_version: str | None = None,
+    reports: Callable[[], Iterable[dict[str, Any]]] | None = None,
+) -> bool:
+    """Recompute `compound_results` if they were made by another engine version.
+
+    The reports are computed before the write lock is taken; the rows are then replaced in one
+    `BEGIN IMMEDIATE` transaction (upsert by formula, then delete formulas no longer in the
+    catalogue), so a failure leaves the previous results intact and a second process that
+    starts at the same time waits and then finds nothing to do.
+
+    Args:
+        engine: From `make_engine`, already migrated.
+        model_version: Version to store (defaults to `screening.MODEL_VERSION`).
+        reports: Callable returning every catalogue report (defaults to
+            `screening.report.catalogue_reports`).
+
+    Returns:
+        True if the rows were recomputed, False if they were already current.
+    """
+    version = model_version or screening.MODEL_VERSION
+    if stored_model_version(engine) == version:
+        return False
+    if reports is None:
+        from screening.report import catalogue_reports as reports
+    rows = [row_values(report) for report in reports()]
+    table = CompoundResult.__table__
+    with engine.connect() as conn:
+        conn.execution_options(**{WRITE_LOCK: True})
+        with conn.begin():
+            if _version_in(conn) == version:
+                return False
+            if rows:
+                conn.execute(_upsert(table, "formula"), rows)
+            formulas = [row["formula"] for row in rows]
+            conn.execute(delete(table).where(table.c.formula.not_in(formulas)))
+            now = datetime.now(UTC).isoformat(timespec="seconds")
+            conn.execute(
+                _upsert(StoreMeta.__table__, "key"),
+                [{"key": "model_version", "value": version}, {"key": "computed_at", "value": now}],
+            )
+    return True
+
+
+def open_store(db_path: Path, **refresh_options: Any) -> sessionmaker:
+    """Open (creating if needed), migrate and refresh the database; return a session factory.
+
+    Args:
+        db_path: The SQLite file.
+        **refresh_options: Passed to `refresh_results` (tests inject small catalogues).
+
+    Returns:
+        A `sessionmaker` bound to the file's engine.
+
+    Raises:
+        StoreError: The file is not a usable bondgap database, or it was written by a newer
+            version of bondgap.
+    """
+    from app.migrations import upgrade_to_head
+
+    try:
+        engine = make_engine(db_path)
+        upgrade_to_head(engine)
+        refresh_results(engine, **refresh_options)
+    except (DBAPIError, OSError) as exc:
+        reason = getattr(exc, "orig", None) or exc
+        raise StoreError(f"cannot use database {db_path}: {reason}") from exc
+    return sessionmaker(engine, expire_on_commit=False)

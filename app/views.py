@@ -1,0 +1,181 @@
+"""What the compound page shows, built from an engine report: numbered lines and chart data.
+
+Labels, units, routes and references of computed quantities come from `screening.registry`,
+so the page lists whatever the registry lists; measured values carry their own source.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Iterable
+from dataclasses import dataclass
+from typing import Any
+
+from screening.phillips import CRITICAL_IONICITY
+from screening.registry import BOND_ORBITAL, QUANTITIES, Quantity
+
+CAUTION_TAIL = "toxic; follow the safety data sheets, local codes and your site's safety rules"
+
+EXTRA_QUANTITIES: tuple[Quantity, ...] = (
+    Quantity("harrison.hybrid_energy_cation_eV", "Cation sp3 hybrid energy", "eV",
+             "(eps_s + 3 eps_p)/4 of the cation", BOND_ORBITAL),
+    Quantity("harrison.hybrid_energy_anion_eV", "Anion sp3 hybrid energy", "eV",
+             "(eps_s + 3 eps_p)/4 of the anion", BOND_ORBITAL),
+)
+"""Report values the page shows that `screening.registry` does not list (yet)."""
+
+MEASURED: tuple[tuple[str, str, str], ...] = (
+    ("band_gap_eV", "Band gap", "eV"),
+    ("gap_kind", "Gap kind", ""),
+    ("eps_inf", "High-frequency dielectric constant ε∞", ""),
+    ("lattice_a", "Lattice constant a (as measured)", "Å"),
+    ("lattice_c", "Lattice constant c (as measured)", "Å"),
+)
+"""Keys of `report["measured"]` shown in the measured section: key, label, default unit."""
+
+UNIT_SYMBOLS: dict[str, str] = {"angstrom": "Å"}
+"""Unit names in the seed data shown as symbols."""
+
+SECTION_TITLES: dict[str, str] = {
+    "phillips": "Dielectric theory (Phillips–Van Vechten)",
+    "harrison": "Bond orbitals (Harrison)",
+    "coordination": "Coordination",
+}
+
+
+@dataclass(frozen=True)
+class Line:
+    """One number (or word) on the compound page, with everything needed to trust it."""
+
+    label: str
+    value: float | str | None
+    unit: str
+    route: str
+    source: str
+
+    @property
+    def text(self) -> str:
+        """The value as shown: measured numbers as given, model numbers to 3 decimals."""
+        if self.value is None:
+            return "—"
+        if isinstance(self.value, bool) or not isinstance(self.value, int | float):
+            return str(self.value)
+        if self.route == "measured":
+            return f"{self.value:.6g}"
+        return f"{self.value:.3f}"
+
+
+@dataclass(frozen=True)
+class Section:
+    """A titled group of lines."""
+
+    title: str
+    lines: tuple[Line, ...]
+
+
+def dig(report: Any, dotted: str) -> Any:
+    """Value at a dotted path of the report (`phillips.predictive.ionicity`); None if absent."""
+    for part in dotted.split("."):
+        if not isinstance(report, dict):
+            return None
+        report = report.get(part)
+    return report
+
+
+def _measured_lines(report: dict[str, Any]) -> tuple[Line, ...]:
+    lines = [Line("Structure", dig(report, "structure.observed"), "", "observed",
+                  dig(report, "structure.source") or "")]
+    for key, label, unit in MEASURED:
+        item = dig(report, f"measured.{key}")
+        if key == "lattice_c" and item is None:
+            continue
+        if item is None:
+            lines.append(Line(label, None, unit, "measured", "no value in the seed data"))
+            continue
+        source = str(item.get("source") or "")
+        if item.get("from_memory"):
+            source += " (from memory)"
+        if item.get("note"):
+            source += f"; {item['note']}"
+        shown_unit = UNIT_SYMBOLS.get(item.get("unit") or "", item.get("unit") or unit)
+        lines.append(Line(label, item.get("value"), shown_unit, "measured", source))
+    return tuple(lines)
+
+
+def report_sections(report: dict[str, Any]) -> list[Section]:
+    """The compound page's tables: measured values, then each model's quantities.
+
+    Args:
+        report: An engine report (docs/report-schema.md).
+
+    Returns:
+        Sections in display order; a quantity the report lacks shows as an empty value.
+    """
+    sections = [Section("Measured (seed data)", _measured_lines(report))]
+    groups: dict[str, list[Line]] = {}
+    known = {q.key for q in QUANTITIES}
+    for q in (*QUANTITIES, *(e for e in EXTRA_QUANTITIES if e.key not in known)):
+        group = q.key.split(".")[0] if "." in q.key else "structure"
+        route = q.route
+        if q.key == "coordination.predicted" and dig(report, "coordination.route"):
+            route += f" ({dig(report, 'coordination.route')} fi)"
+        line = Line(q.label, dig(report, q.key), q.unit, route, q.reference)
+        groups.setdefault(group, []).append(line)
+    groups.setdefault("coordination", []).append(Line(
+        "Coordination (observed)", dig(report, "coordination.observed"), "",
+        "from the observed structure", dig(report, "structure.source") or ""))
+    titles = {"structure": "Lattice and bond length", **SECTION_TITLES}
+    for group, lines in groups.items():
+        sections.append(Section(titles.get(group, group.capitalize()), tuple(lines)))
+    return sections
+
+
+def caution_line(elements: Iterable[str]) -> str | None:
+    """The caution shown where toxic elements appear, e.g. "contains As: toxic; follow ..."."""
+    names = sorted(set(elements))
+    return f"contains {', '.join(names)}: {CAUTION_TAIL}" if names else None
+
+
+def _finite(*values: Any) -> bool:
+    return all(isinstance(v, int | float) and math.isfinite(v) for v in values)
+
+
+def eh_c_chart(reports: Iterable[dict[str, Any]], *, formula: str) -> dict[str, Any]:
+    """Data for the Eh-C plane: every compound, the critical ionicity line, `formula` marked.
+
+    Each compound is placed by its spectroscopic Eh and C where the measured eps_inf allows,
+    else by the predictive ones (the route is given per point).
+    """
+    points = []
+    for r in reports:
+        route = "spectroscopic" if dig(r, "phillips.spectroscopic.ionicity") is not None else (
+            "predictive")
+        eh = dig(r, f"phillips.{route}.homopolar_gap_eV")
+        c = dig(r, f"phillips.{route}.heteropolar_gap_eV")
+        if not _finite(eh, c):
+            continue
+        points.append({
+            "formula": r["formula"], "family": r.get("family"), "eh": eh, "c": c,
+            "ionicity": dig(r, f"phillips.{route}.ionicity"), "route": route,
+            "coordination": dig(r, "coordination.observed"),
+        })
+    return {
+        "formula": formula,
+        "points": points,
+        "critical_ionicity": CRITICAL_IONICITY,
+        "critical_slope": math.sqrt(CRITICAL_IONICITY / (1.0 - CRITICAL_IONICITY)),
+    }
+
+
+def bond_levels_chart(report: dict[str, Any]) -> dict[str, Any] | None:
+    """Data for the bond level diagram: two hybrid levels and the bonding/antibonding pair."""
+    keys = ("hybrid_energy_cation_eV", "hybrid_energy_anion_eV", "bonding_eV", "antibonding_eV")
+    values = [dig(report, f"harrison.{k}") for k in keys]
+    if not _finite(*values):
+        return None
+    return {
+        "formula": report["formula"], "cation": report["cation"], "anion": report["anion"],
+        **dict(zip(("cation_eV", "anion_eV", "bonding_eV", "antibonding_eV"), values, strict=True)),
+        "covalent_energy_eV": dig(report, "harrison.covalent_energy_eV"),
+        "polar_energy_eV": dig(report, "harrison.polar_energy_eV"),
+    }

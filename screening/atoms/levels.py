@@ -1,0 +1,55 @@
+"""Result types of the atom solver: one orbital level and the levels of one atom (eV)."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+
+@dataclass(frozen=True)
+class Level:
+    """One Kohn-Sham orbital energy of a free atom.
+
+    Attributes:
+        orbital: Spectroscopic label such as ``"4p"``.
+        n: Principal quantum number.
+        l: Angular momentum quantum number (0 = s, 1 = p, 2 = d, 3 = f).
+        occupation: Electrons in the orbital in the ground-state configuration (0 for an
+            unoccupied valence level).
+        energy_eV: Orbital eigenvalue in eV relative to the vacuum level (negative = bound).
+    """
+
+    orbital: str
+    n: int
+    l: int  # noqa: E741 - the quantum number's conventional name
+    occupation: float
+    energy_eV: float
+
+
+@dataclass(frozen=True)
+class AtomLevels:
+    """Kohn-Sham (LDA) levels of one neutral atom in its ground-state configuration.
+
+    Attributes:
+        element: Element symbol.
+        Z: Atomic number.
+        configuration: Ground-state configuration, e.g. ``"[Ar] 3d10 4s2"``.
+        levels: Every occupied orbital plus the unoccupied valence s and p, sorted by (n, l).
+        total_energy_eV: LDA total energy of the atom in eV.
+    """
+
+    element: str
+    Z: int
+    configuration: str
+    levels: tuple[Level, ...]
+    total_energy_eV: float
+
+    def level(self, orbital: str) -> Level:
+        """Return the level with spectroscopic label ``orbital`` (e.g. ``"4s"``).
+
+        Raises:
+            KeyError: The atom has no such level in ``levels``.
+        """
+        for level in self.levels:
+            if level.orbital == orbital:
+                return level
+        raise KeyError(f"{self.element} has no level {orbital!r} in its table")

@@ -1,0 +1,89 @@
+"""The atom solver: SCF on two nested grids and Richardson extrapolation to the continuum limit.
+
+The second-order finite differences of `screening.atoms.radial` leave an error c h^2 + O(h^4)
+in every eigenvalue and in the total energy. Solving at steps h and h/2 and taking
+(4 E(h/2) - E(h)) / 3 removes the h^2 term; at the default h = 0.02 the remaining error is
+about 3e-5 eV for the deepest levels of the heaviest atoms and far less for valence levels.
+"""
+
+from __future__ import annotations
+
+from dataclasses import replace
+
+import numpy as np
+from numpy.typing import NDArray
+
+from screening.atoms.configurations import (
+    atomic_number,
+    configuration,
+    element_symbol,
+    subshells_to_solve,
+)
+from screening.atoms.levels import AtomLevels, Level
+from screening.atoms.radial import LogGrid
+from screening.atoms.scf import ScfSettings, run_scf
+from screening.constants import HARTREE_EV
+
+DEFAULT_SETTINGS: ScfSettings = ScfSettings()
+"""Settings of the committed table (see `ScfSettings` for their meaning)."""
+
+
+def _refine_charge(charge: NDArray[np.float64], fine: LogGrid) -> NDArray[np.float64]:
+    """Carry a radial charge to the refined grid ``fine``: copy even points, cubic midpoints."""
+    refined = np.empty(fine.size)
+    refined[::2] = charge
+    # Four-point (cubic) interpolation at the midpoints, linear next to the ends.
+    mid = 0.5 * (charge[:-1] + charge[1:])
+    mid[1:-1] = (9.0 * (charge[1:-2] + charge[2:-1]) - (charge[:-3] + charge[3:])) / 16.0
+    refined[1::2] = np.maximum(mid, 0.0)
+    return refined
+
+
+def solve_atom(
+    symbol_or_z: str | int,
+    settings: ScfSettings | None = None,
+    **overrides: float,
+) -> AtomLevels:
+    """Solve the LDA Kohn-Sham equations of a neutral atom now (a fraction of a second).
+
+    Non-relativistic, spherical, spin-unpolarised; Slater exchange plus VWN5 correlation; the
+    ground-state configuration of `screening.atoms.configurations`.
+
+    Args:
+        symbol_or_z: Element symbol (``"Zn"``) or atomic number, Z = 1 to 86.
+        settings: Numerical settings; `DEFAULT_SETTINGS` when omitted.
+        **overrides: Fields of `ScfSettings` to change, e.g. ``max_iterations=1``.
+
+    Returns:
+        Every occupied level and the unoccupied valence s and p levels in eV, and the total
+        energy in eV. An unoccupied level that the atom's potential does not bind (the 2p of H
+        and He) is reported at the vacuum level, 0 eV, the bottom of its continuum.
+
+    Raises:
+        UnknownElementError: Not an element of Z = 1 to 86.
+        ConvergenceError: The SCF cycle did not converge on one of the two grids.
+    """
+    z = atomic_number(symbol_or_z)
+    symbol = element_symbol(z)
+    chosen = replace(settings or DEFAULT_SETTINGS, **overrides)
+    shells = subshells_to_solve(z)
+    label = f"{symbol} (Z = {z})"
+
+    coarse_grid = LogGrid.spanning(chosen.z_r_min / z, chosen.r_max, chosen.h)
+    coarse = run_scf(z, shells, coarse_grid, chosen, label=label)
+    fine_grid = coarse_grid.refined()
+    start = _refine_charge(coarse.charge, fine_grid)
+    fine = run_scf(z, shells, fine_grid, chosen, initial_charge=start, label=label)
+
+    def extrapolate(e_coarse: float, e_fine: float) -> float:
+        return (4.0 * e_fine - e_coarse) / 3.0
+
+    levels = []
+    for shell in shells:
+        key = (shell.n, shell.l)
+        energy = extrapolate(coarse.energies[key], fine.energies[key])
+        if shell.occupation == 0.0 and fine.energies[key] >= 0.0:
+            energy = 0.0  # not bound: only continuum states (box states here) above 0
+        levels.append(Level(shell.label, shell.n, shell.l, shell.occupation, energy * HARTREE_EV))
+    total = extrapolate(coarse.total_energy, fine.total_energy) * HARTREE_EV
+    return AtomLevels(symbol, z, configuration(z), tuple(levels), total)
