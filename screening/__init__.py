@@ -4,4 +4,4 @@ Nothing in this package imports the web layer, the database or any I/O beyond re
 package's own data files.
 """
 
-MODEL_VERSION = "0.1.0"
+MODEL_VERSION = "0.2.0"

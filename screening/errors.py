@@ -7,6 +7,13 @@ Family tree::
     ├── FormulaSyntaxError               text that cannot be read as a formula
     ├── NotOctetCompoundError            a formula that is not an octet binary AB
     ├── CompositionError                 alloy fractions out of [0, 1] or not summing per site
+    ├── StructureMismatchError           alloy end points (or layer and substrate) of different
+    │                                    crystal structures
+    ├── MissingDataError                 an alloy whose end-point binaries lack the measured
+    │                                    data the calculation needs
+    ├── SearchTargetError                a search target or limit outside its meaningful range
+    │                                    (negative tolerance, wavelength <= 0, bad grid step)
+    ├── UnknownChoiceError               a named option not in its registry (lists the names)
     └── UnknownSubstrateError            a substrate name not in the table
     ConvergenceError (RuntimeError)      a numerical solve that did not converge (not bad input)
 
@@ -32,6 +39,22 @@ class NotOctetCompoundError(BondgapInputError):
 
 class CompositionError(BondgapInputError):
     """Alloy fractions outside [0, 1], not summing to one per site, or mixing sublattices."""
+
+
+class StructureMismatchError(BondgapInputError):
+    """Alloy end points of different crystal structures, or a layer and substrate that differ."""
+
+
+class MissingDataError(BondgapInputError):
+    """An alloy whose end-point binaries lack the measured data that the calculation needs."""
+
+
+class SearchTargetError(BondgapInputError):
+    """A search target or limit outside its meaningful range (not: one no alloy meets)."""
+
+
+class UnknownChoiceError(BondgapInputError):
+    """A named option (model, geometry, ...) that is not in its registry."""
 
 
 class UnknownSubstrateError(BondgapInputError):

@@ -10,8 +10,10 @@ import math
 from typing import Any
 
 from screening import MODEL_VERSION
+from screening.errors import BondgapInputError
 from screening.evaluate import CatalogueTable, catalogue_table
 from screening.formula import parse_compound
+from screening.gaps import GapsAt, gap_model, gaps_at
 from screening.hazards import CAUTION, hazard_notes
 from screening.phillips import PhillipsResult
 from screening.reference import Measured
@@ -40,7 +42,60 @@ def _phillips(result: PhillipsResult, i: int) -> dict[str, float | None] | None:
     }
 
 
-def _report(table: CatalogueTable, i: int) -> dict[str, Any]:
+MAX_TEMPERATURE_K = 2000.0
+"""Highest temperature accepted for a gap, K."""
+
+
+def check_temperature(temperature_K: float) -> float:
+    """Return the temperature if it is a number in [0, 2000] K, else raise a clear error."""
+    value = float(temperature_K)
+    if not 0.0 <= value <= MAX_TEMPERATURE_K:
+        raise BondgapInputError(
+            f"temperature {temperature_K!r} K is outside the accepted range 0 to "
+            f"{MAX_TEMPERATURE_K:g} K"
+        )
+    return value
+
+
+def _band_gap(table: CatalogueTable, at: GapsAt, i: int) -> dict[str, Any]:
+    model = gap_model()
+    measured = table.measured[i]
+    kind = measured.get("gap_kind")
+    direct = bool(model.tight_binding.direct[i])
+    return {
+        "value_eV": _float(at.value_eV[i]),
+        "value_source": "measured" if at.value_is_measured[i] else "estimate",
+        "estimate_eV": _float(at.estimate_eV[i]),
+        "uncertainty_eV": _float(at.uncertainty_eV[i]),
+        "cross_validated_eV": _float(at.cross_validated_eV[i]),
+        "measured_eV": _float(at.measured_eV[i]),
+        "measured_300K_eV": _float(model.measured_300K_eV[i]),
+        "kind": str(kind.value) if kind else ("direct" if direct else "indirect"),
+        "kind_source": "measured" if kind else "tight-binding model",
+        "temperature_K": at.temperature_K,
+        "temperature_law": at.temperature_law_source[i],
+        "temperature_law_assumed": bool(at.temperature_law_assumed[i]),
+        "wavelength_nm": _float(at.wavelength_nm[i]),
+        "model": {
+            "loo_mae_eV": model.loo_mae_eV,
+            "loo_max_eV": model.loo_max_eV,
+            "n_measured": int(model.fit.targets.size),
+        },
+    }
+
+
+def _tight_binding(i: int) -> dict[str, Any]:
+    tb = gap_model().tight_binding
+    return {
+        "gamma_gap_eV": _float(tb.gamma_gap_eV[i]),
+        "x_gap_eV": _float(tb.x_gap_eV[i]),
+        "l_gap_eV": _float(tb.l_gap_eV[i]),
+        "min_gap_eV": _float(tb.min_gap_eV[i]),
+        "direct": bool(tb.direct[i]),
+    }
+
+
+def _report(table: CatalogueTable, i: int, at: GapsAt) -> dict[str, Any]:
     compound = table.compounds[i]
     measured = table.measured[i]
     bonds = table.bonds
@@ -84,6 +139,8 @@ def _report(table: CatalogueTable, i: int) -> dict[str, Any]:
             "bonding_eV": _float(bonds.bonding_eV[i]),
             "antibonding_eV": _float(bonds.antibonding_eV[i]),
         },
+        "band_gap": _band_gap(table, at, i),
+        "tight_binding": _tight_binding(i),
         "coordination": {
             "predicted": table.coordination_predicted[i],
             "route": table.coordination_route[i],
@@ -103,13 +160,20 @@ def normalise_formula(text: str) -> str:
     return parse_compound(text).formula
 
 
-def compound_report(formula: str) -> dict[str, Any]:
-    """The report of one compound, from any accepted spelling of its formula."""
+def compound_report(formula: str, temperature_K: float = 300.0) -> dict[str, Any]:
+    """The report of one compound, from any accepted spelling of its formula.
+
+    Args:
+        formula: e.g. "GaAs", "AsGa".
+        temperature_K: temperature of the band gap block, 0 to 2000 K.
+    """
     table = catalogue_table()
-    return _report(table, table.index(normalise_formula(formula)))
+    index = table.index(normalise_formula(formula))
+    return _report(table, index, gaps_at(check_temperature(temperature_K)))
 
 
-def catalogue_reports() -> list[dict[str, Any]]:
-    """Reports for every catalogue compound, in catalogue order."""
+def catalogue_reports(temperature_K: float = 300.0) -> list[dict[str, Any]]:
+    """Reports for every catalogue compound, in catalogue order, gaps at temperature_K."""
     table = catalogue_table()
-    return [_report(table, i) for i in range(len(table.compounds))]
+    at = gaps_at(check_temperature(temperature_K))
+    return [_report(table, i, at) for i in range(len(table.compounds))]

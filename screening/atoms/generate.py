@@ -16,7 +16,7 @@ from collections.abc import Sequence
 from screening.atoms.levels import AtomLevels
 from screening.atoms.table import (
     ENERGY_DECIMALS,
-    _term_value_arrays,
+    clear_cache,
     compute_table,
     load_table,
     table_document,
@@ -54,8 +54,7 @@ def main(argv: Sequence[str] | None = None) -> int:
     if args.write:
         path = table_path()
         path.write_text(table_document(atoms), encoding="utf-8")
-        load_table.cache_clear()
-        _term_value_arrays.cache_clear()
+        clear_cache()
         print(f"wrote {path}")
         return 0
     worst = _compare(atoms, load_table())

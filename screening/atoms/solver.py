@@ -42,7 +42,7 @@ def _refine_charge(charge: NDArray[np.float64], fine: LogGrid) -> NDArray[np.flo
 def solve_atom(
     symbol_or_z: str | int,
     settings: ScfSettings | None = None,
-    **overrides: float,
+    **overrides: float | int,
 ) -> AtomLevels:
     """Solve the LDA Kohn-Sham equations of a neutral atom now (a fraction of a second).
 

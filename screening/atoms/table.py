@@ -153,6 +153,12 @@ def _term_value_arrays() -> tuple[NDArray[np.float64], NDArray[np.float64]]:
     return s_values, p_values
 
 
+def clear_cache() -> None:
+    """Forget the loaded table (after the file was rewritten)."""
+    load_table.cache_clear()
+    _term_value_arrays.cache_clear()
+
+
 def term_values(symbols: Sequence[str] | str) -> tuple[NDArray[np.float64], NDArray[np.float64]]:
     """Valence s and p term values (LDA orbital energies, eV) of many elements at once.
 

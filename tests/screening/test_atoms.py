@@ -269,3 +269,15 @@ def test_hartree_potential_of_the_hydrogen_1s_cloud() -> None:
     charge = 4.0 * r**3 * np.exp(-2.0 * r)  # 4 pi r^3 n with n = exp(-2r) / pi
     exact = 1.0 / r - (1.0 + 1.0 / r) * np.exp(-2.0 * r)
     np.testing.assert_allclose(hartree_potential(grid, charge), exact, atol=1e-7)
+
+
+def test_committed_table_was_made_with_the_default_settings() -> None:
+    import json
+    from dataclasses import asdict
+
+    from screening.atoms import DEFAULT_SETTINGS
+    from screening.atoms.table import table_path
+
+    header = json.loads(table_path().read_text(encoding="utf-8"))
+    assert header["settings"] == asdict(DEFAULT_SETTINGS)
+    assert [a["element"] for a in header["atoms"]] == SYMBOLS
