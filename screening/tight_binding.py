@@ -54,6 +54,7 @@ from numpy.typing import ArrayLike, NDArray
 
 from screening.constants import HBAR2_OVER_M_EV_ANGSTROM2
 from screening.errors import BondgapInputError
+from screening.harrison import ETA_1981, UniversalEta
 
 N_BANDS: int = 8
 """Bands per k-point: s and three p orbitals on each of two atoms."""
@@ -65,33 +66,10 @@ DEFAULT_CHUNK: int = 2048
 """Default number of 8 x 8 matrices built and diagonalised per batch (about 2 MB complex)."""
 
 
-@dataclass(frozen=True)
-class HarrisonEta:
-    """Dimensionless coefficients of Harrison's universal couplings V = eta hbar^2/(m d^2).
+HarrisonEta = UniversalEta
+"""The universal coefficients, shared with the bond-orbital model (`screening.harrison`)."""
 
-    Attributes:
-        ss_sigma: eta for the s-s sigma coupling.
-        sp_sigma: eta for the s-p sigma coupling.
-        pp_sigma: eta for the p-p sigma coupling.
-        pp_pi: eta for the p-p pi coupling.
-        source: Publication the set comes from.
-    """
-
-    ss_sigma: float
-    sp_sigma: float
-    pp_sigma: float
-    pp_pi: float
-    source: str
-
-
-ETA_HARRISON_1981 = HarrisonEta(
-    ss_sigma=-1.32,
-    sp_sigma=1.42,
-    pp_sigma=2.22,
-    pp_pi=-0.63,
-    source="W. A. Harrison, Phys. Rev. B 24, 5835 (1981); Harrison, Electronic Structure and "
-    "the Properties of Solids (Dover 1989)",
-)
+ETA_HARRISON_1981 = ETA_1981
 """Harrison's 1981 universal coefficients, the set the engine uses."""
 
 
@@ -370,6 +348,67 @@ def band_energies(
             h = _build(g, onsite[c0 : c0 + c_step], table[c0 : c0 + c_step], upper=False)
             out[c0 : c0 + c_step, k0 : k0 + k_step] = np.linalg.eigvalsh(h, UPLO="L")
     return out
+
+
+FCC_RECIPROCAL_2PI_OVER_A: NDArray[np.float64] = np.array(
+    [[-1.0, 1.0, 1.0], [1.0, -1.0, 1.0], [1.0, 1.0, -1.0]]
+)
+"""Primitive reciprocal vectors of the fcc lattice (rows), in units of 2 pi / a."""
+
+_NEIGHBOUR_G = np.array(
+    [[i, j, m] for i in (-1, 0, 1) for j in (-1, 0, 1) for m in (-1, 0, 1)], dtype=float
+) @ FCC_RECIPROCAL_2PI_OVER_A
+
+
+def irreducible_k(k: ArrayLike) -> tuple[NDArray[np.float64], NDArray[np.intp]]:
+    """Reduce k-points to one representative per orbit of the symmetry of E(k).
+
+    E(k) of the model is unchanged by the 24 operations of T_d (coordinate permutations with
+    an even number of sign changes) and by time reversal k -> -k, which together give all
+    48 permutations and sign changes of O_h, and by reciprocal-lattice translations (a gauge
+    change). Each point is folded into the first Brillouin zone (nearest of the 27
+    neighbouring reciprocal-lattice points, a point at the zone edge or one step outside it),
+    then mapped to sorted absolute components.
+
+    Args:
+        k: wave vectors (nk, 3) in units of 2 pi / a.
+
+    Returns:
+        (representatives (nu, 3), inverse (nk,)) with k-point i represented by
+        ``representatives[inverse[i]]``.
+    """
+    kk = _check_k(k)
+    squared = (
+        np.einsum("ij,ij->i", kk, kk)[:, None]
+        - 2.0 * kk @ _NEIGHBOUR_G.T
+        + np.einsum("ij,ij->i", _NEIGHBOUR_G, _NEIGHBOUR_G)[None, :]
+    )
+    folded = kk - _NEIGHBOUR_G[np.argmin(squared, axis=1)]
+    canonical = np.sort(np.abs(folded), axis=1)
+    # one integer key per point (components quantised to 1e-6; |k| < 2 in the first zone)
+    quantised = np.rint(canonical * 1e6).astype(np.int64)
+    keys = (quantised[:, 0] * 2_000_003 + quantised[:, 1]) * 2_000_003 + quantised[:, 2]
+    _, first, inverse = np.unique(keys, return_index=True, return_inverse=True)
+    return canonical[first], inverse.ravel()
+
+
+def band_energies_symmetric(
+    k: ArrayLike,
+    params: TightBindingParameters,
+    eta: HarrisonEta = ETA_HARRISON_1981,
+    *,
+    chunk: int = DEFAULT_CHUNK,
+) -> NDArray[np.float64]:
+    """Same result as :func:`band_energies`, diagonalising each symmetry orbit only once.
+
+    For a uniform Brillouin-zone sample (a Monkhorst-Pack grid with equal divisions) this
+    cuts the number of diagonalisations by up to 48 (see :func:`irreducible_k`).
+
+    Returns:
+        Float array (ncompound, nk, 8), eV.
+    """
+    representatives, inverse = irreducible_k(k)
+    return band_energies(representatives, params, eta, chunk=chunk)[:, inverse]
 
 
 SPECIAL_POINTS_2PI_OVER_A: dict[str, tuple[float, float, float]] = {

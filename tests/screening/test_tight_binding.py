@@ -388,3 +388,25 @@ def test_parameters_from_elements_uses_atom_term_values(monkeypatch: pytest.Monk
     assert p.eps_s_cation_eV[0] == -8.9 and p.eps_p_anion_eV[0] == -5.4
     with pytest.raises(BondgapInputError):
         parameters_from_elements(["Ga", "Al"], ["As"], 2.448)
+
+
+def test_symmetric_reduction_gives_the_same_bands_on_a_uniform_grid() -> None:
+    from screening.tight_binding import (
+        FCC_RECIPROCAL_2PI_OVER_A,
+        TightBindingParameters,
+        band_energies,
+        band_energies_symmetric,
+        irreducible_k,
+    )
+
+    n = 8
+    axes = (np.arange(n) + 0.5) / n - 0.5
+    u = np.stack(np.meshgrid(axes, axes, axes, indexing="ij"), axis=-1).reshape(-1, 3)
+    k = u @ FCC_RECIPROCAL_2PI_OVER_A
+    # GaAs-like parameters (NIST LDA term values, Kotochigova et al. 1997; inputs only).
+    params = TightBindingParameters(-14.250, -5.374, -8.926, -2.766, 2.448)
+    full = band_energies(k, params)
+    reduced = band_energies_symmetric(k, params)
+    assert np.allclose(full, reduced, atol=1e-9)
+    representatives, _ = irreducible_k(k)
+    assert len(representatives) < len(k) / 5
