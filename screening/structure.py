@@ -3,9 +3,10 @@
 All lengths in angstrom, volumes in cubic angstrom. Structures: ``diamond`` and
 ``zincblende`` (cubic a), ``wurtzite`` (hexagonal a, c), ``rocksalt`` (cubic a).
 
-A wurtzite crystal is described by the zincblende crystal of the same volume per atom pair,
-a_eq = (sqrt(3) a^2 c)^(1/3); its bond length is d = sqrt(3) a_eq / 4, within about 0.5 % of
-the real wurtzite bonds for ideal c/a.
+A wurtzite crystal (a, c) is given the internal parameter that makes its four bonds equal,
+u = 1/4 + a^2 / (3 c^2), so its bond length is d = u c (exactly sqrt(3/8) a for the ideal
+c/a = sqrt(8/3)); its volume per pair is sqrt(3) a^2 c / 4, and the zincblende crystal of the
+same volume has a_eq = (sqrt(3) a^2 c)^(1/3).
 """
 
 from __future__ import annotations
@@ -45,12 +46,29 @@ def cubic_lattice_constant(
     return np.where(cubic, a, np.where(s == "wurtzite", hexagonal, np.nan))
 
 
+def wurtzite_u(a_angstrom: ArrayLike, c_angstrom: ArrayLike) -> NDArray[np.float64]:
+    """Internal parameter u = 1/4 + a^2/(3 c^2) that makes the four wurtzite bonds equal."""
+    a = np.asarray(a_angstrom, dtype=float)
+    c = np.asarray(c_angstrom, dtype=float)
+    return 0.25 + a * a / (3.0 * c * c)
+
+
 def bond_length(structure: ArrayLike, a_angstrom: ArrayLike, c_angstrom: ArrayLike
                 ) -> NDArray[np.float64]:
-    """Nearest-neighbour distance d in angstrom: sqrt(3)a/4 (fourfold), a/2 (rocksalt)."""
+    """Nearest-neighbour distance d in angstrom.
+
+    sqrt(3) a / 4 for diamond and zincblende, a / 2 for rocksalt, u c for wurtzite (four equal
+    bonds); NaN for ``other``.
+    """
     s = np.asarray(structure)
     a_cubic = cubic_lattice_constant(s, a_angstrom, c_angstrom)
-    return np.where(np.isin(s, OCTAHEDRAL), a_cubic / 2.0, np.sqrt(3.0) * a_cubic / 4.0)
+    with np.errstate(invalid="ignore"):
+        hexagonal = wurtzite_u(a_angstrom, c_angstrom) * np.asarray(c_angstrom, dtype=float)
+    return np.select(
+        [np.isin(s, OCTAHEDRAL), s == "wurtzite"],
+        [a_cubic / 2.0, hexagonal],
+        np.sqrt(3.0) * a_cubic / 4.0,
+    )
 
 
 def volume_per_pair(structure: ArrayLike, a_angstrom: ArrayLike, c_angstrom: ArrayLike

@@ -30,3 +30,19 @@ def test_volume_per_pair_matches_bond_length() -> None:
 
 def test_unknown_structure_gives_nan() -> None:
     assert np.isnan(structure.bond_length("other", 5.0, np.nan))
+
+
+def test_wurtzite_bond_is_the_ideal_one_for_ideal_c_over_a() -> None:
+    # Ideal wurtzite (c/a = sqrt(8/3), u = 3/8): every bond is sqrt(3/8) a (geometry; common
+    # practice, no source).
+    a = 3.2
+    c = a * np.sqrt(8.0 / 3.0)
+    assert structure.wurtzite_u(a, c) == pytest.approx(0.375)
+    assert structure.bond_length("wurtzite", a, c) == pytest.approx(np.sqrt(3.0 / 8.0) * a)
+
+
+def test_gan_bond_length() -> None:
+    # GaN: a = 3.189, c = 5.185 A, u = 0.377 and Ga-N bonds of 1.95 A (Madelung, Semiconductors:
+    # Data Handbook, 2004; from memory).
+    assert structure.wurtzite_u(3.189, 5.185) == pytest.approx(0.377, abs=0.002)
+    assert structure.bond_length("wurtzite", 3.189, 5.185) == pytest.approx(1.95, abs=0.01)
