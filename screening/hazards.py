@@ -68,3 +68,24 @@ def hazard_notes(elements: Iterable[str]) -> list[HazardNote]:
 def toxic_elements(elements: Iterable[str]) -> list[str]:
     """The given elements that are toxic in themselves."""
     return [n.element for n in hazard_notes(elements) if n.toxic]
+
+
+ROHS_SOURCE: Final[str] = (
+    "Directive 2011/65/EU (RoHS 2), Annex II, as amended by Commission Delegated Directive "
+    "(EU) 2015/863"
+)
+
+ROHS_RESTRICTED: Final[dict[str, str]] = {
+    "Pb": "lead: 0.1 % by weight in homogeneous materials",
+    "Hg": "mercury: 0.1 % by weight in homogeneous materials",
+    "Cd": "cadmium: 0.01 % by weight in homogeneous materials",
+    "Cr": "hexavalent chromium: 0.1 % by weight in homogeneous materials",
+}
+"""Elements restricted by RoHS Annex II (the other Annex II entries are organic compounds:
+PBB, PBDE and four phthalates). Exemptions exist per application; check the current Annex III
+and IV and your product's category."""
+
+
+def rohs_restricted(elements: Iterable[str]) -> list[str]:
+    """The given elements that RoHS Annex II restricts."""
+    return [e for e in elements if e in ROHS_RESTRICTED]
