@@ -12,7 +12,7 @@ from collections.abc import Sequence
 
 from screening.errors import BondgapInputError
 
-COMMAND_MODULES: tuple[str, ...] = ("levels", "serve", "show", "list")
+COMMAND_MODULES: tuple[str, ...] = ("levels", "serve", "show", "list", "bands")
 """Modules of `app.commands`, each with `register(subparsers)` that sets `func` on its parser."""
 
 

@@ -1,4 +1,4 @@
-"""Dependencies shared by the routes: the settings, a database session, the table query."""
+"""Dependencies shared by the routes: settings, a database session, the checked URL inputs."""
 
 from __future__ import annotations
 
@@ -10,7 +10,15 @@ from sqlalchemy.orm import Session
 
 from app.columns import COLUMNS_BY_KEY
 from app.config import Settings
-from app.queries import FAMILY_CHOICES, STRUCTURE_CHOICES, TableQuery
+from app.params import (
+    DEFAULT_POINTS,
+    FAMILY_CHOICES,
+    KIND_CHOICES,
+    STRUCTURE_CHOICES,
+    TableQuery,
+    parse_points,
+    parse_temperature,
+)
 
 
 def get_settings(request: Request) -> Settings:
@@ -24,6 +32,9 @@ def get_session(request: Request) -> Iterator[Session]:
         yield session
 
 
+TEMPERATURE_HELP = "Temperature of the band gaps, K (0 to 2000; default 300)"
+
+
 def table_query(
     family: Annotated[
         str | None, Query(description=f"Family: {', '.join(FAMILY_CHOICES)}")
@@ -33,10 +44,12 @@ def table_query(
         Query(description=f"Observed structure: {', '.join(STRUCTURE_CHOICES)}"),
     ] = None,
     gap_min: Annotated[
-        str | None, Query(description="Lowest measured band gap, eV")
+        str | None,
+        Query(description="Lowest band gap at the temperature, eV (measured, else estimate)"),
     ] = None,
     gap_max: Annotated[
-        str | None, Query(description="Highest measured band gap, eV")
+        str | None,
+        Query(description="Highest band gap at the temperature, eV (measured, else estimate)"),
     ] = None,
     measured_only: Annotated[
         bool, Query(description="Only compounds with a measured band gap")
@@ -46,6 +59,17 @@ def table_query(
         Query(description=f"Column to sort by: {', '.join(COLUMNS_BY_KEY)}"),
     ] = None,
     desc: Annotated[bool, Query(description="Sort in descending order")] = False,
+    temperature: Annotated[str | None, Query(description=TEMPERATURE_HELP)] = None,
+    wl_min: Annotated[
+        str | None, Query(description="Shortest photon wavelength of the band gap, nm")
+    ] = None,
+    wl_max: Annotated[
+        str | None, Query(description="Longest photon wavelength of the band gap, nm")
+    ] = None,
+    kind: Annotated[
+        str | None,
+        Query(description=f"Gap kind (measured, else sp3 model): {', '.join(KIND_CHOICES)}"),
+    ] = None,
 ) -> TableQuery:
     """Read the table filters from the URL (shared by the table page and the API)."""
     return TableQuery.parse(
@@ -56,9 +80,33 @@ def table_query(
         measured_only=measured_only,
         sort=sort,
         desc=desc,
+        temperature=temperature,
+        wl_min=wl_min,
+        wl_max=wl_max,
+        kind=kind,
     )
+
+
+def temperature_query(
+    temperature: Annotated[str | None, Query(description=TEMPERATURE_HELP)] = None,
+) -> float | None:
+    """Read `?temperature=` (K) from the URL; None where not given (300 K)."""
+    return parse_temperature(temperature)
+
+
+def points_query(
+    points: Annotated[
+        str | None,
+        Query(description=f"Number of k-points along the path, 6 to 2000 (default "
+                          f"{DEFAULT_POINTS})"),
+    ] = None,
+) -> int:
+    """Read `?points=` from the URL."""
+    return parse_points(points)
 
 
 SettingsDep = Annotated[Settings, Depends(get_settings)]
 SessionDep = Annotated[Session, Depends(get_session)]
 TableQueryDep = Annotated[TableQuery, Depends(table_query)]
+TemperatureDep = Annotated[float | None, Depends(temperature_query)]
+PointsDep = Annotated[int, Depends(points_query)]

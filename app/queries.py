@@ -1,8 +1,10 @@
 """Read side of the store: the compound table (one function for page, API and CSV) and reports.
 
-`TableQuery.parse` checks filters and the sort key against `app.columns.COLUMNS` (an unknown
-key raises `QueryError`, which the web layer answers with 400 and the CLI with exit code 2);
-`table_rows` runs the query with bound parameters only.
+`TableQuery.parse` (`app.params`) checks filters and the sort key against `app.columns.COLUMNS`
+(an unknown key raises `QueryError`, which the web layer answers with 400 and the CLI with exit
+code 2). `table_rows` selects with bound parameters only, puts in the band gaps at the asked
+temperature (from the engine when it is not the stored 300 K), then applies the gap and
+wavelength windows and the sort to those values.
 """
 
 from __future__ import annotations
@@ -10,119 +12,57 @@ from __future__ import annotations
 import csv
 import io
 import json
-import math
-from dataclasses import asdict, dataclass
 from typing import Any
 
 from sqlalchemy import ColumnElement, and_, func, select
 from sqlalchemy.orm import Session
 
 from app.columns import COLUMNS, COLUMNS_BY_KEY
-from app.store import CompoundResult, StoreMeta
-from screening.elements import FAMILIES
-from screening.errors import BondgapInputError
-from screening.structure import STRUCTURES
+from app.gap_columns import gap_values_at
+from app.models import CompoundResult, StoreMeta
+from app.params import (
+    FAMILY_CHOICES,
+    KIND_CHOICES,
+    STORED_TEMPERATURE_K,
+    STRUCTURE_CHOICES,
+    QueryError,
+    TableQuery,
+)
 
-
-class QueryError(BondgapInputError):
-    """A table query the store cannot answer: unknown sort key, filter value or gap window."""
-
-
-FAMILY_CHOICES: tuple[str, ...] = tuple(FAMILIES[v] for v in sorted(FAMILIES, reverse=True))
-STRUCTURE_CHOICES: tuple[str, ...] = STRUCTURES
-
-
-def _choice(value: str | None, accepted: tuple[str, ...], what: str) -> str | None:
-    """Match `value` case-insensitively against `accepted`; None for an empty value."""
-    if value is None or not value.strip():
-        return None
-    for option in accepted:
-        if option.lower() == value.strip().lower():
-            return option
-    raise QueryError(f"unknown {what} {value.strip()[:40]!r}; accepted: {', '.join(accepted)}")
-
-
-def _bound(value: float | str | None, name: str) -> float | None:
-    """Read one end of the gap window in eV; None for an empty value."""
-    if value is None or (isinstance(value, str) and not value.strip()):
-        return None
-    try:
-        number = float(value)
-    except ValueError:
-        number = math.nan
-    if not math.isfinite(number):
-        raise QueryError(f"{name} must be a finite number of eV, not {str(value)[:40]!r}")
-    return number
-
-
-@dataclass(frozen=True)
-class TableQuery:
-    """A checked table query: filters, sort key and direction."""
-
-    family: str | None = None
-    structure: str | None = None
-    gap_min: float | None = None
-    gap_max: float | None = None
-    measured_only: bool = False
-    sort: str = "formula"
-    desc: bool = False
-
-    @classmethod
-    def parse(
-        cls,
-        *,
-        family: str | None = None,
-        structure: str | None = None,
-        gap_min: float | str | None = None,
-        gap_max: float | str | None = None,
-        measured_only: bool = False,
-        sort: str | None = None,
-        desc: bool = False,
-    ) -> TableQuery:
-        """Check raw filter values (as typed in a form, a URL or the CLI) and return the query.
-
-        Raises:
-            QueryError: Unknown family, structure or sort key; a gap bound that is not a
-                finite number; a gap window with min > max.
-        """
-        gap_min, gap_max = _bound(gap_min, "gap-min"), _bound(gap_max, "gap-max")
-        if gap_min is not None and gap_max is not None and gap_min > gap_max:
-            raise QueryError(f"empty gap window: gap-min {gap_min:g} eV > gap-max {gap_max:g} eV")
-        sort_key = (sort or "formula").strip()
-        if sort_key not in COLUMNS_BY_KEY:
-            raise QueryError(
-                f"cannot sort by {sort_key[:40]!r}; sortable columns: {', '.join(COLUMNS_BY_KEY)}"
-            )
-        return cls(
-            family=_choice(family, FAMILY_CHOICES, "family"),
-            structure=_choice(structure, STRUCTURE_CHOICES, "structure"),
-            gap_min=gap_min,
-            gap_max=gap_max,
-            measured_only=measured_only,
-            sort=sort_key,
-            desc=desc,
-        )
-
-    def as_params(self) -> dict[str, Any]:
-        """Return the query as URL parameters (only those set), for links and the API echo."""
-        return {k: v for k, v in asdict(self).items() if v not in (None, False, "")}
+__all__ = [
+    "FAMILY_CHOICES", "KIND_CHOICES", "STRUCTURE_CHOICES", "QueryError", "TableQuery",
+    "all_reports", "compound_count", "compound_report", "model_version", "rows_csv",
+    "table_payload", "table_rows",
+]
 
 
 def _conditions(query: TableQuery) -> list[ColumnElement[bool]]:
-    """SQL conditions for the query's filters (values go in as bound parameters)."""
+    """SQL conditions for the filters that do not depend on temperature (bound parameters)."""
     table = CompoundResult
     conditions: list[ColumnElement[bool]] = []
     if query.family:
         conditions.append(table.family == query.family)
     if query.structure:
         conditions.append(table.structure_observed == query.structure)
-    if query.gap_min is not None:
-        conditions.append(table.gap_measured_ev >= query.gap_min)
-    if query.gap_max is not None:
-        conditions.append(table.gap_measured_ev <= query.gap_max)
     if query.measured_only:
         conditions.append(table.gap_measured_ev.is_not(None))
+    if query.kind:
+        conditions.append(table.gap_kind_shown == query.kind)
     return conditions
+
+
+def _within(value: float | None, low: float | None, high: float | None) -> bool:
+    """Whether `value` lies in [low, high]; a missing value lies in no window that is set."""
+    if low is None and high is None:
+        return True
+    return value is not None and (low is None or value >= low) and (high is None or value <= high)
+
+
+def _sorted(rows: list[dict[str, Any]], key: str, desc: bool) -> list[dict[str, Any]]:
+    """Rows sorted by `key` (ties by formula), rows without a value last in either direction."""
+    present = sorted((r for r in rows if r[key] is not None), key=lambda r: r["formula"])
+    present.sort(key=lambda r: r[key], reverse=desc)  # stable: ties stay in formula order
+    return present + [r for r in rows if r[key] is None]
 
 
 def row_dict(result: CompoundResult) -> dict[str, Any]:
@@ -135,16 +75,23 @@ def row_dict(result: CompoundResult) -> dict[str, Any]:
 def table_rows(session: Session, *, query: TableQuery) -> list[dict[str, Any]]:
     """Return the compound table rows for `query`: filtered, sorted, empty values last.
 
-    The one source of rows for the table page, `GET /api/compounds` and `bondgap list`.
+    The one source of rows for the table page, `GET /api/compounds` and `bondgap list`. Band
+    gaps are those at `query.temperature_K`: stored at 300 K, else computed by the engine for
+    the whole catalogue at once (a few ms).
     """
-    column = getattr(CompoundResult, COLUMNS_BY_KEY[query.sort].attr)
-    order = column.desc() if query.desc else column.asc()
-    stmt = (
-        select(CompoundResult)
-        .where(and_(True, *_conditions(query)))
-        .order_by(column.is_(None), order, CompoundResult.formula)
-    )
-    return [row_dict(r) for r in session.scalars(stmt)]
+    stmt = select(CompoundResult).where(and_(True, *_conditions(query)))
+    stmt = stmt.order_by(CompoundResult.formula)
+    rows = [row_dict(r) for r in session.scalars(stmt)]
+    if query.temperature_K != STORED_TEMPERATURE_K:
+        at = gap_values_at(query.temperature_K)
+        for row in rows:
+            row.update(at[row["formula"]])
+    rows = [
+        r for r in rows
+        if _within(r["band_gap_eV"], query.gap_min, query.gap_max)
+        and _within(r["wavelength_nm"], query.wl_min, query.wl_max)
+    ]
+    return _sorted(rows, query.sort, query.desc)
 
 
 def model_version(session: Session) -> str | None:
@@ -158,6 +105,7 @@ def table_payload(session: Session, *, query: TableQuery) -> dict[str, Any]:
     return {
         "model_version": model_version(session),
         "query": query.as_params(),
+        "temperature_K": query.temperature_K,
         "columns": [
             {"key": c.key, "label": c.label, "unit": c.unit, "description": c.description}
             for c in COLUMNS
@@ -178,18 +126,27 @@ def rows_csv(rows: list[dict[str, Any]]) -> str:
     return out.getvalue()
 
 
-def compound_report(session: Session, *, formula: str) -> dict[str, Any]:
-    """Return the engine's report on one compound: stored if catalogued, else computed.
+def compound_report(
+    session: Session, *, formula: str, temperature_K: float | None = None
+) -> dict[str, Any]:
+    """Return the engine's report on one compound, its band gap at `temperature_K`.
+
+    The stored report where the compound is catalogued and the temperature is the stored
+    300 K; otherwise the engine computes it (a few ms once warm).
 
     Raises:
-        BondgapInputError: The text is not an octet binary formula (the engine's message).
+        BondgapInputError: The text is not an octet binary formula, or the temperature is
+            outside 0 to 2000 K (the engine's message).
     """
     from screening.report import compound_report as compute
     from screening.report import normalise_formula
 
     normalised = normalise_formula(formula)
+    temperature = STORED_TEMPERATURE_K if temperature_K is None else temperature_K
     stored = session.get(CompoundResult, normalised)
-    return json.loads(stored.report_json) if stored else compute(normalised)
+    if stored and temperature == STORED_TEMPERATURE_K:
+        return json.loads(stored.report_json)
+    return compute(normalised, temperature_K=temperature)
 
 
 def all_reports(session: Session) -> list[dict[str, Any]]:

@@ -2,7 +2,8 @@
 
 Data flows one way: `seed_data/` -> `screening` (the engine) -> this store -> pages, API, CLI.
 
-Tables (the schema is owned by the Alembic revisions in `app/migrations/versions/`):
+Tables (models in `app.models`; the schema is owned by the Alembic revisions in
+`app/migrations/versions/`):
 
     store_meta          key/value pairs; `model_version` is the engine version of the results
     compound_results    one row per catalogue compound: indexed scalars for sorting and
@@ -18,32 +19,25 @@ Every connection runs with WAL journaling, foreign keys on and a busy timeout.
 
 from __future__ import annotations
 
-import json
 import sqlite3
 from collections.abc import Callable, Iterable
 from datetime import UTC, datetime
 from pathlib import Path
 from typing import Any
 
-from sqlalchemy import (
-    URL,
-    Connection,
-    Engine,
-    Float,
-    String,
-    Table,
-    Text,
-    create_engine,
-    delete,
-    event,
-    select,
-)
+from sqlalchemy import URL, Connection, Engine, Table, create_engine, delete, event, select
 from sqlalchemy.dialects.sqlite import Insert
 from sqlalchemy.dialects.sqlite import insert as sqlite_insert
 from sqlalchemy.exc import DBAPIError
-from sqlalchemy.orm import DeclarativeBase, Mapped, mapped_column, sessionmaker
+from sqlalchemy.orm import sessionmaker
 
 import screening
+from app.models import Base, CompoundResult, StoreMeta, row_values
+
+__all__ = [
+    "WRITE_LOCK", "Base", "CompoundResult", "StoreError", "StoreMeta", "make_engine",
+    "open_store", "refresh_results", "row_values", "stored_model_version",
+]
 
 WRITE_LOCK = "bondgap_write_lock"
 """Execution option: start the transaction with `BEGIN IMMEDIATE` (take the write lock first)."""
@@ -51,92 +45,6 @@ WRITE_LOCK = "bondgap_write_lock"
 
 class StoreError(RuntimeError):
     """The database file cannot be opened or migrated (not the user's input, but their file)."""
-
-
-class Base(DeclarativeBase):
-    """Declarative base of every table; `Base.metadata` is what the migrations must match."""
-
-
-class StoreMeta(Base):
-    """Key/value facts about the stored results (for example `model_version`)."""
-
-    __tablename__ = "store_meta"
-
-    key: Mapped[str] = mapped_column(String(64), primary_key=True)
-    value: Mapped[str] = mapped_column(Text)
-
-
-class CompoundResult(Base):
-    """The engine's report on one compound, with the columns the table sorts and filters on.
-
-    The formula (normalised by the engine) is the primary key, so rows keep their identity
-    when results are recomputed and later tables can refer to them by formula.
-    """
-
-    __tablename__ = "compound_results"
-
-    formula: Mapped[str] = mapped_column(String(32), primary_key=True)
-    family: Mapped[str] = mapped_column(String(8), index=True)
-    cation: Mapped[str] = mapped_column(String(3))
-    anion: Mapped[str] = mapped_column(String(3))
-    structure_observed: Mapped[str | None] = mapped_column(String(32), index=True)
-    gap_measured_ev: Mapped[float | None] = mapped_column(Float, index=True)
-    gap_kind: Mapped[str | None] = mapped_column(String(16))
-    eps_inf: Mapped[float | None] = mapped_column(Float)
-    lattice_constant_angstrom: Mapped[float | None] = mapped_column(Float, index=True)
-    bond_length_angstrom: Mapped[float | None] = mapped_column(Float)
-    ionicity_spectroscopic: Mapped[float | None] = mapped_column(Float, index=True)
-    ionicity_predictive: Mapped[float | None] = mapped_column(Float, index=True)
-    polarity: Mapped[float | None] = mapped_column(Float)
-    covalent_energy_ev: Mapped[float | None] = mapped_column(Float)
-    polar_energy_ev: Mapped[float | None] = mapped_column(Float)
-    coordination_predicted: Mapped[str | None] = mapped_column(String(16))
-    coordination_observed: Mapped[str | None] = mapped_column(String(16))
-    hazard_elements: Mapped[str] = mapped_column(String(64), default="")
-    model_version: Mapped[str] = mapped_column(String(32))
-    report_json: Mapped[str] = mapped_column(Text)
-
-
-def _dig(mapping: Any, *keys: str) -> Any:
-    """Follow `keys` into nested dicts; None as soon as a level is missing or null."""
-    for key in keys:
-        if not isinstance(mapping, dict):
-            return None
-        mapping = mapping.get(key)
-    return mapping
-
-
-def row_values(report: dict[str, Any]) -> dict[str, Any]:
-    """Map one engine report (docs/report-schema.md) to the values of its `compound_results` row.
-
-    Args:
-        report: The dict from `screening.report.compound_report`.
-
-    Returns:
-        Column name -> value, including `report_json`.
-    """
-    return {
-        "formula": report["formula"],
-        "family": report["family"],
-        "cation": report["cation"],
-        "anion": report["anion"],
-        "structure_observed": _dig(report, "structure", "observed"),
-        "gap_measured_ev": _dig(report, "measured", "band_gap_eV", "value"),
-        "gap_kind": _dig(report, "measured", "gap_kind", "value"),
-        "eps_inf": _dig(report, "measured", "eps_inf", "value"),
-        "lattice_constant_angstrom": report.get("lattice_constant_angstrom"),
-        "bond_length_angstrom": report.get("bond_length_used_angstrom"),
-        "ionicity_spectroscopic": _dig(report, "phillips", "spectroscopic", "ionicity"),
-        "ionicity_predictive": _dig(report, "phillips", "predictive", "ionicity"),
-        "polarity": _dig(report, "harrison", "polarity"),
-        "covalent_energy_ev": _dig(report, "harrison", "covalent_energy_eV"),
-        "polar_energy_ev": _dig(report, "harrison", "polar_energy_eV"),
-        "coordination_predicted": _dig(report, "coordination", "predicted"),
-        "coordination_observed": _dig(report, "coordination", "observed"),
-        "hazard_elements": ",".join(_dig(report, "hazards", "elements") or ()),
-        "model_version": report.get("model_version", screening.MODEL_VERSION),
-        "report_json": json.dumps(report, ensure_ascii=False, sort_keys=True),
-    }
 
 
 def make_engine(db_path: Path) -> Engine:

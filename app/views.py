@@ -13,6 +13,7 @@ from typing import Any
 
 from screening.phillips import CRITICAL_IONICITY
 from screening.registry import BOND_ORBITAL, QUANTITIES, Quantity
+from screening.temperature import wavelength_nm
 
 CAUTION_TAIL = "toxic; follow the safety data sheets, local codes and your site's safety rules"
 
@@ -45,13 +46,27 @@ SECTION_TITLES: dict[str, str] = {
 
 @dataclass(frozen=True)
 class Line:
-    """One number (or word) on the compound page, with everything needed to trust it."""
+    """One number (or word) on the compound page, with everything needed to trust it.
+
+    Attributes:
+        label: What the number is.
+        value: The number (or word); None where not known.
+        unit: Its unit ("" for none).
+        route: How it was obtained ("measured", a model's formula, ...).
+        source: Where it comes from (publication, seed data).
+        uncertainty: The estimate's uncertainty (same unit), shown as "± u".
+        wavelength_nm: Photon wavelength of a band gap, shown beside it.
+        key: A stable name for the line (page element ids, tests).
+    """
 
     label: str
     value: float | str | None
     unit: str
     route: str
     source: str
+    uncertainty: float | None = None
+    wavelength_nm: float | None = None
+    key: str = ""
 
     @property
     def text(self) -> str:
@@ -60,9 +75,16 @@ class Line:
             return "—"
         if isinstance(self.value, bool) or not isinstance(self.value, int | float):
             return str(self.value)
-        if self.route == "measured":
+        if self.route.startswith("measured"):
             return f"{self.value:.6g}"
+        if self.uncertainty is not None:
+            return f"{self.value:.3f} ± {self.uncertainty:.2f}"
         return f"{self.value:.3f}"
+
+    @property
+    def wavelength_text(self) -> str:
+        """The photon wavelength as shown ("" where there is none)."""
+        return f"{self.wavelength_nm:.0f} nm" if self.wavelength_nm else ""
 
 
 @dataclass(frozen=True)
@@ -71,6 +93,13 @@ class Section:
 
     title: str
     lines: tuple[Line, ...]
+
+
+def wavelength_of(gap_eV: Any) -> float | None:
+    """Photon wavelength of a band gap in nm (hc/Eg); None for no gap or one <= 0."""
+    if not _finite(gap_eV) or gap_eV <= 0:
+        return None
+    return float(wavelength_nm(gap_eV))
 
 
 def dig(report: Any, dotted: str) -> Any:
@@ -98,7 +127,9 @@ def _measured_lines(report: dict[str, Any]) -> tuple[Line, ...]:
         if item.get("note"):
             source += f"; {item['note']}"
         shown_unit = UNIT_SYMBOLS.get(item.get("unit") or "", item.get("unit") or unit)
-        lines.append(Line(label, item.get("value"), shown_unit, "measured", source))
+        wavelength = wavelength_of(item.get("value")) if key == "band_gap_eV" else None
+        lines.append(Line(label, item.get("value"), shown_unit, "measured", source,
+                          wavelength_nm=wavelength, key=f"measured.{key}"))
     return tuple(lines)
 
 

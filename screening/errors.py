@@ -11,8 +11,8 @@ Family tree::
     │                                    crystal structures
     ├── MissingDataError                 an alloy whose end-point binaries lack the measured
     │                                    data the calculation needs
-    ├── SearchTargetError                a search target or limit outside its meaningful range
-    │                                    (negative tolerance, wavelength <= 0, bad grid step)
+    ├── OutOfRangeError                  a number outside its meaningful range (temperature < 0,
+    │                                    tolerance < 0, wavelength <= 0, grid step)
     ├── UnknownChoiceError               a named option not in its registry (lists the names)
     └── UnknownSubstrateError            a substrate name not in the table
     ConvergenceError (RuntimeError)      a numerical solve that did not converge (not bad input)
@@ -49,8 +49,8 @@ class MissingDataError(BondgapInputError):
     """An alloy whose end-point binaries lack the measured data that the calculation needs."""
 
 
-class SearchTargetError(BondgapInputError):
-    """A search target or limit outside its meaningful range (not: one no alloy meets)."""
+class OutOfRangeError(BondgapInputError):
+    """A number outside its meaningful range (a target no alloy meets is not an error)."""
 
 
 class UnknownChoiceError(BondgapInputError):

@@ -89,7 +89,7 @@ def _observed_coordination(data: dict[str, Measured], ambient: str | None) -> st
     return None
 
 
-def _d_factors(measured: dict[str, dict[str, Measured]], compounds: tuple[Compound, ...]
+def d_factors(measured: dict[str, dict[str, Measured]], compounds: tuple[Compound, ...]
                ) -> NDArray[np.float64]:
     """Van Vechten's d-electron factor D per compound (calibration, see `phillips`)."""
     def element_d(symbol: str) -> float:
@@ -110,7 +110,7 @@ def _d_factors(measured: dict[str, dict[str, Measured]], compounds: tuple[Compou
     return phillips.compound_d_factor(d_cat, d_an, dz, CALIBRATION.d_reduction_z)
 
 
-def _period_radii(measured: dict[str, dict[str, Measured]]) -> dict[int, float]:
+def period_radii(measured: dict[str, dict[str, Measured]]) -> dict[int, float]:
     """Covalent radius of each period: half the bond length of its group-IV crystal (A)."""
     radii = {}
     for row, symbol in ((2, "C"), (3, "Si"), (4, "Ge"), (5, "Sn")):
@@ -148,8 +148,8 @@ def catalogue_table() -> CatalogueTable:
     volume = np.where(known, volume_measured, structure.tetrahedral_volume_per_pair(d_used))
     eps_inf = np.array([_number(m, "eps_inf") for m in measured])
 
-    spectro = phillips.spectroscopic(d_used, volume, eps_inf, _d_factors(reference, compounds))
-    row_radius = _period_radii(reference)
+    spectro = phillips.spectroscopic(d_used, volume, eps_inf, d_factors(reference, compounds))
+    row_radius = period_radii(reference)
     predictive = phillips.predictive(
         d_used, volume,
         [VALENCE[x] for x in cations], [VALENCE[x] for x in anions],

@@ -13,7 +13,8 @@ from app.commands.common import open_sessions
 from app.config import Settings, add_db_argument
 
 TEXT_COLUMNS: tuple[str, ...] = (
-    "formula", "family", "structure_observed", "band_gap_measured_eV", "lattice_constant_angstrom",
+    "formula", "family", "structure_observed", "band_gap_eV", "band_gap_estimate_eV",
+    "band_gap_uncertainty_eV", "wavelength_nm", "band_gap_kind", "lattice_constant_angstrom",
     "ionicity_spectroscopic", "ionicity_predictive", "polarity", "coordination_predicted",
 )
 """Columns of the plain-text table (--json and --csv give all of them)."""
@@ -24,13 +25,21 @@ def register(sub: argparse._SubParsersAction) -> None:
     parser = sub.add_parser(
         "list",
         help="the compound table, filtered and sorted",
-        description="List compounds. Filters combine; the gap window applies to the measured "
-        "band gap. --json prints the object of GET /api/compounds, --csv its rows.",
+        description="List compounds. Filters combine; band gaps are those at --temperature "
+        "(default 300 K), and the gap and wavelength windows apply to the gap shown: measured "
+        "where known, else the estimate. --json prints the object of GET /api/compounds, "
+        "--csv its rows.",
     )
     parser.add_argument("--family", help=f"one of {', '.join(queries.FAMILY_CHOICES)}")
     parser.add_argument("--structure", help=f"one of {', '.join(queries.STRUCTURE_CHOICES)}")
-    parser.add_argument("--gap-min", metavar="EV", help="lowest measured band gap, eV")
-    parser.add_argument("--gap-max", metavar="EV", help="highest measured band gap, eV")
+    parser.add_argument("--temperature", metavar="K",
+                        help="temperature of the band gaps, 0 to 2000 K (default 300)")
+    parser.add_argument("--gap-min", metavar="EV", help="lowest band gap, eV")
+    parser.add_argument("--gap-max", metavar="EV", help="highest band gap, eV")
+    parser.add_argument("--wl-min", metavar="NM", help="shortest photon wavelength of the gap, nm")
+    parser.add_argument("--wl-max", metavar="NM", help="longest photon wavelength of the gap, nm")
+    parser.add_argument("--kind", help=f"gap kind: {', '.join(queries.KIND_CHOICES)} (measured, "
+                        "else from the sp3 model)")
     parser.add_argument("--measured-only", action="store_true",
                         help="only compounds with a measured band gap")
     parser.add_argument("--sort", metavar="COLUMN", default="formula",
@@ -47,11 +56,12 @@ def render_text(rows: list[dict[str, Any]]) -> str:
     """Rows as an aligned text table with a header line."""
     columns = [COLUMNS_BY_KEY[k] for k in TEXT_COLUMNS]
     header = [c.label + (f" ({c.unit})" if c.unit else "") for c in columns]
-    body = [[c.format(row[c.key]) for c in columns] for row in rows]
+    body = [[" ".join(p for p in c.cell(row) if p) for c in columns] for row in rows]
     widths = [max(len(h), *(len(r[i]) for r in body)) for i, h in enumerate(header)]
     lines = ["  ".join(h.ljust(w) for h, w in zip(header, widths, strict=True)).rstrip()]
     lines += ["  ".join(v.ljust(w) for v, w in zip(r, widths, strict=True)).rstrip() for r in body]
-    lines.append(f"{len(rows)} compounds")
+    lines.append(f"{len(rows)} compounds; marks: m measured, est. estimate ± leave-one-out "
+                 "error of the family, model from the sp3 model")
     caution = views.caution_line(e for row in rows for e in row["hazard_elements"])
     if caution:
         lines.append(f"Caution: {caution}.")
@@ -68,6 +78,10 @@ def run(args: argparse.Namespace) -> int:
         measured_only=args.measured_only,
         sort=args.sort,
         desc=args.desc,
+        temperature=args.temperature,
+        wl_min=args.wl_min,
+        wl_max=args.wl_max,
+        kind=args.kind,
     )
     sessions = open_sessions(Settings.from_args(args))
     with sessions() as session:

@@ -6,9 +6,10 @@ import argparse
 import json
 from typing import Any
 
-from app import queries, views
+from app import gap_views, queries, views
 from app.commands.common import open_sessions
 from app.config import Settings, add_db_argument
+from app.params import parse_temperature
 
 
 def register(sub: argparse._SubParsersAction) -> None:
@@ -17,10 +18,13 @@ def register(sub: argparse._SubParsersAction) -> None:
         "show",
         help="everything about one compound",
         description="Print every number about one octet binary compound with its unit, route "
-        "and source. --json prints the object of GET /api/compounds/FORMULA.",
+        "and source; band gaps at --temperature (default 300 K). --json prints the object of "
+        "GET /api/compounds/FORMULA?temperature=K.",
     )
     parser.add_argument("formula", help="formula such as GaAs, ZnSe, Si (any order: AsGa)")
     parser.add_argument("--json", action="store_true", help="print the report as JSON")
+    parser.add_argument("--temperature", metavar="K",
+                        help="temperature of the band gaps, 0 to 2000 K (default 300)")
     add_db_argument(parser)
     parser.set_defaults(func=run)
 
@@ -31,11 +35,18 @@ def render_text(report: dict[str, Any]) -> str:
         f"{report['formula']}  ({report['family']}; cation {report['cation']}, "
         f"anion {report['anion']}; engine model {report.get('model_version')})"
     ]
-    for section in views.report_sections(report):
+    sections = [
+        gap_views.band_gap_section(report),
+        *views.report_sections(report),
+        gap_views.tight_binding_section(report),
+    ]
+    for section in sections:
         lines += ["", section.title]
         width = max(len(line.label) for line in section.lines)
         for line in section.lines:
             value = f"{line.text} {line.unit}".rstrip()
+            if line.wavelength_text:
+                value += f" ({line.wavelength_text})"
             source = f"; {line.source}" if line.source else ""
             lines.append(f"  {line.label:<{width}}  {value:<14}  [{line.route}{source}]")
     caution = views.caution_line(report.get("hazards", {}).get("elements") or ())
@@ -46,8 +57,10 @@ def render_text(report: dict[str, Any]) -> str:
 
 def run(args: argparse.Namespace) -> int:
     """Print one compound's report (text or JSON)."""
+    temperature = parse_temperature(args.temperature)
     sessions = open_sessions(Settings.from_args(args))
     with sessions() as session:
-        report = queries.compound_report(session, formula=args.formula)
+        report = queries.compound_report(session, formula=args.formula,
+                                         temperature_K=temperature)
     print(json.dumps(report, indent=2, ensure_ascii=False) if args.json else render_text(report))
     return 0

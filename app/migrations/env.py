@@ -6,7 +6,8 @@ From the command line (`alembic -c app/alembic.ini ...`) it opens the database t
 
 from alembic import context
 
-from app.store import Base, make_engine
+from app.models import Base
+from app.store import make_engine
 
 config = context.config
 target_metadata = Base.metadata

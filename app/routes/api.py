@@ -9,7 +9,9 @@ from fastapi.responses import PlainTextResponse
 
 import screening
 from app import queries
-from app.deps import SessionDep, TableQueryDep
+from app.accuracy import accuracy_payload
+from app.band_data import bands_payload
+from app.deps import PointsDep, SessionDep, TableQueryDep, TemperatureDep
 
 router = APIRouter(prefix="/api", tags=["compounds"])
 
@@ -26,7 +28,9 @@ FormulaPath = Annotated[
 def list_compounds(session: SessionDep, query: TableQueryDep) -> dict[str, Any]:
     """The compound table: filtered, sorted rows (as bondgap list --json).
 
-    Empty values sort last in either direction. The gap window applies to the measured band gap.
+    Empty values sort last in either direction. Band gaps are those at the temperature
+    (default 300 K); the gap window (eV) and the wavelength window (nm) apply to the gap shown:
+    the measured gap where one is known, else the estimate (see band_gap_source).
     """
     return queries.table_payload(session, query=query)
 
@@ -47,14 +51,36 @@ def list_compounds_csv(session: SessionDep, query: TableQueryDep) -> PlainTextRe
     )
 
 
+@router.get("/compounds/{formula}/bands", responses=ERRORS, summary="Band structure")
+def get_bands(formula: FormulaPath, points: PointsDep) -> dict[str, Any]:
+    """Bands of the sp3 tight-binding model along L-Γ-X-W-K-Γ (as bondgap bands --json).
+
+    Energies (bands_eV, 8 per k-point) in eV relative to the valence-band top; k and path
+    distance in units of 2π/a. The model's limits are in model_limits.
+    """
+    return bands_payload(formula, points=points)
+
+
 @router.get("/compounds/{formula:path}", responses=ERRORS, summary="One compound")
-def get_compound(session: SessionDep, formula: FormulaPath) -> dict[str, Any]:
-    """Everything known about one compound (as bondgap show FORMULA --json).
+def get_compound(
+    session: SessionDep, formula: FormulaPath, temperature: TemperatureDep
+) -> dict[str, Any]:
+    """Everything known about one compound (as bondgap show FORMULA --json --temperature K).
 
     The object follows docs/report-schema.md; any spelling of the formula is accepted
-    (AsGa gives GaAs).
+    (AsGa gives GaAs). The band_gap block is at the temperature (default 300 K).
     """
-    return queries.compound_report(session, formula=formula)
+    return queries.compound_report(session, formula=formula, temperature_K=temperature)
+
+
+@router.get("/accuracy", summary="Band-gap model accuracy", tags=["model"])
+def get_accuracy() -> dict[str, Any]:
+    """Measured against leave-one-out estimated band gap for every measured compound (300 K).
+
+    With the mean and largest absolute error, the RMS per family, the estimator's formula and
+    coefficients, and the known limits.
+    """
+    return accuracy_payload()
 
 
 @router.get("/status", summary="Versions and counts")

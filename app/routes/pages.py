@@ -1,4 +1,4 @@
-"""HTML pages: the compound table, one page per compound, and the API reference."""
+"""HTML pages: the compound table, one page per compound, model accuracy, the API reference."""
 
 from __future__ import annotations
 
@@ -8,9 +8,11 @@ from urllib.parse import quote, urlencode
 from fastapi import APIRouter, Request
 from fastapi.responses import RedirectResponse, Response
 
-from app import queries, views
+from app import gap_views, queries, views
+from app.accuracy import accuracy_payload
 from app.columns import COLUMNS
-from app.deps import SessionDep, TableQueryDep
+from app.deps import SessionDep, TableQueryDep, TemperatureDep
+from screening.bands import MODEL_LIMITS
 
 router = APIRouter(include_in_schema=False)
 
@@ -60,6 +62,8 @@ def compounds_page(request: Request, session: SessionDep, query: TableQueryDep) 
         "total": queries.compound_count(session),
         "families": queries.FAMILY_CHOICES,
         "structures": queries.STRUCTURE_CHOICES,
+        "kinds": queries.KIND_CHOICES,
+        "model_limits": MODEL_LIMITS,
         "csv_url": "/api/compounds.csv" + ("?" + urlencode(params) if params else ""),
         "json_url": "/api/compounds" + ("?" + urlencode(params) if params else ""),
         "caution": views.caution_line(hazards),
@@ -68,23 +72,38 @@ def compounds_page(request: Request, session: SessionDep, query: TableQueryDep) 
 
 
 @router.get("/compounds/{formula:path}")
-def compound_page(request: Request, session: SessionDep, formula: str) -> Response:
-    """Everything about one compound: numbers with unit, route and source; two charts."""
-    report = queries.compound_report(session, formula=formula)
+def compound_page(
+    request: Request, session: SessionDep, formula: str, temperature: TemperatureDep
+) -> Response:
+    """Everything about one compound: band gap at a temperature, numbers, three charts."""
+    report = queries.compound_report(session, formula=formula, temperature_K=temperature)
+    at = "" if temperature is None else "?" + urlencode({"temperature": f"{temperature:.10g}"})
     if report["formula"] != formula:
-        return RedirectResponse("/compounds/" + quote(report["formula"]), status_code=307)
+        return RedirectResponse("/compounds/" + quote(report["formula"]) + at, status_code=307)
     charts = {
         "ehc": views.eh_c_chart(queries.all_reports(session), formula=report["formula"]),
         "levels": views.bond_levels_chart(report),
+        "bands": gap_views.band_chart(report),
     }
     return _render(request, "compound.html", {
         "report": report,
-        "sections": views.report_sections(report),
+        "gap": gap_views.gap_summary(report),
+        "gap_section": gap_views.band_gap_section(report),
+        "sections": [*views.report_sections(report), gap_views.tight_binding_section(report)],
         "charts": charts,
+        "model_limits": MODEL_LIMITS,
         "hazard_caution": views.caution_line(report.get("hazards", {}).get("elements") or ()),
         "hazard_notes": report.get("hazards", {}).get("notes") or [],
-        "json_url": "/api/compounds/" + quote(report["formula"]),
+        "json_url": "/api/compounds/" + quote(report["formula"]) + at,
+        "bands_url": "/api/compounds/" + quote(report["formula"]) + "/bands",
     })
+
+
+@router.get("/accuracy")
+def accuracy_page(request: Request) -> Response:
+    """Measured against leave-one-out estimated band gap for every measured compound."""
+    data = accuracy_payload()
+    return _render(request, "accuracy.html", {"data": data, "model_limits": MODEL_LIMITS})
 
 
 @router.get("/api/docs")

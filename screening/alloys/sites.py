@@ -15,10 +15,10 @@ from screening.elements import FAMILIES, VALENCE, atomic_number
 from screening.errors import CompositionError, NotOctetCompoundError
 
 CATION_ORDER: Final[tuple[str, ...]] = (
-    "Hg", "B", "Al", "In", "Ga", "Tl", "Be", "Mg", "Zn", "Cd", "Ca", "Sr", "Ba",
+    "Hg", "B", "Al", "In", "Ga", "Tl", "Be", "Mg", "Ca", "Sr", "Ba", "Zn", "Cd",
     "Li", "Na", "K", "Rb", "Cu", "Ag",
 )  # fmt: skip
-"""Display order of cation-site elements (InGaAs, AlGaAs, HgCdTe, ZnCdSe, MgZnO)."""
+"""Display order of cation-site elements (InGaAs, AlGaAs, AlInGaP, HgCdTe, ZnCdSe, MgZnO)."""
 
 ANION_ORDER: Final[tuple[str, ...]] = (
     "As", "P", "Sb", "N", "Bi", "O", "S", "Se", "Te", "F", "Cl", "Br", "I",
@@ -76,8 +76,7 @@ def split_sites(symbols: Iterable[str], shown: str) -> tuple[tuple[str, ...], tu
         )
     valences = {VALENCE[s] for s in cations} | {8 - VALENCE[s] for s in anions}
     if len(valences) != 1:
-        described = ", ".join(f"{s} ({FAMILIES.get(VALENCE[s], 'group ' + str(VALENCE[s]))})"
-                              for s in elements)
+        described = ", ".join(f"{s} ({VALENCE[s]} valence electrons)" for s in elements)
         raise CompositionError(
             f"'{shown}' mixes sublattices of different families: {described}. Every cation "
             "must have the same valence v and every anion 8 - v (III-V, II-VI or I-VII)"

@@ -33,9 +33,14 @@ def test_list_filters_and_sorts(client) -> None:
 
 def test_gap_window_and_measured_only(client) -> None:
     rows = client.get("/api/compounds", params={"gap_min": "1", "gap_max": "2.5"}).json()["rows"]
-    assert rows and all(1 <= r["band_gap_measured_eV"] <= 2.5 for r in rows)
+    assert rows and all(1 <= r["band_gap_eV"] <= 2.5 for r in rows)
+    assert {r["band_gap_source"] for r in rows} == {"measured", "estimate"}
     measured = client.get("/api/compounds", params={"measured_only": "true"}).json()["rows"]
     assert measured and all(r["band_gap_measured_eV"] is not None for r in measured)
+    assert {r["band_gap_source"] for r in measured} == {"measured"}
+    both = {"measured_only": "true", "gap_min": "1", "gap_max": "2.5"}
+    rows = client.get("/api/compounds", params=both).json()["rows"]
+    assert rows and all(1 <= r["band_gap_measured_eV"] <= 2.5 for r in rows)
 
 
 def test_csv_has_the_same_rows_as_json(client) -> None:

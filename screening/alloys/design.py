@@ -1,0 +1,114 @@
+"""The design space of the composition finder: every system's compositions on a fine grid.
+
+Each site's fractions run over a simplex grid of the given step (a site with one element is
+1; two elements: x = 0, step, ..., 1; three: every (i, j, k) step with i + j + k = 1), and a
+system's grid is the product of its two sites' grids. All systems' grids are concatenated into
+one array of compositions with the system index of each row, grouped by system (the order the
+gap evaluation works in).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from functools import lru_cache
+
+import numpy as np
+from numpy.typing import NDArray
+
+from screening.alloys.model import ZERO_COLUMN, PackedSystems, pack_systems, vegard
+from screening.alloys.systems import AlloySystem
+from screening.errors import OutOfRangeError
+
+MIN_STEP = {"ternary": 1e-4, "quaternary": 1e-3}
+"""Finest grid steps accepted (they bound the number of points to about 10^6 per system)."""
+
+
+def grid_count(step: float, form: str) -> int:
+    """Number of intervals 1/step, checked to be a whole number within the accepted range.
+
+    Raises:
+        OutOfRangeError: A step that does not divide 1, or is too fine or coarse.
+    """
+    if not math.isfinite(step) or not MIN_STEP[form] <= step <= 0.5:
+        raise OutOfRangeError(
+            f"{form} grid step {step!r}: give a value from {MIN_STEP[form]} to 0.5"
+        )
+    count = round(1.0 / step)
+    if abs(count * step - 1.0) > 1e-9:
+        raise OutOfRangeError(f"{form} grid step {step!r} does not divide 1 into whole steps")
+    return count
+
+
+def simplex_grid(size: int, count: int) -> NDArray[np.float64]:
+    """Every composition of ``size`` elements on one site in steps of 1/count, (n, size)."""
+    if size == 1:
+        return np.ones((1, 1))
+    if size == 2:
+        x = np.arange(count + 1) / count
+        return np.column_stack([x, 1.0 - x])
+    i, j = np.triu_indices(count + 1)  # i <= j: fractions i, j - i, count - j
+    return np.column_stack([i, j - i, count - j]) / count
+
+
+def system_grid(system: AlloySystem, count: int) -> NDArray[np.float64]:
+    """A system's grid in :attr:`AlloySystem.elements` order, (n, nelement)."""
+    cations = simplex_grid(len(system.cations), count)
+    anions = simplex_grid(len(system.anions), count)
+    return np.hstack([np.repeat(cations, len(anions), axis=0), np.tile(anions, (len(cations), 1))])
+
+
+@dataclass(frozen=True, eq=False)
+class DesignSpace:
+    """Every grid composition of a set of systems, packed for vectorised evaluation.
+
+    Attributes:
+        packed: The packed systems.
+        system_index: (npoint,) system of each composition.
+        fractions: (npoint, 5) site fractions (column 4 zero).
+        lattice_constant_angstrom: (npoint,) Vegard lattice constant (300 K).
+        ternary_step: Grid step of the ternaries.
+        quaternary_step: Grid step of the quaternaries.
+    """
+
+    packed: PackedSystems
+    system_index: NDArray[np.intp]
+    fractions: NDArray[np.float64]
+    lattice_constant_angstrom: NDArray[np.float64]
+    ternary_step: float
+    quaternary_step: float
+
+    @property
+    def size(self) -> int:
+        """Number of grid compositions."""
+        return len(self.system_index)
+
+
+@lru_cache(maxsize=8)
+def design_space(systems: tuple[AlloySystem, ...], ternary_step: float = 0.001,
+                 quaternary_step: float = 0.005) -> DesignSpace:
+    """Build (and cache) the grid of every system.
+
+    Args:
+        systems: The systems.
+        ternary_step: Grid step of ternaries.
+        quaternary_step: Grid step of quaternaries.
+
+    Raises:
+        OutOfRangeError: A step that does not divide 1 or is out of range.
+    """
+    counts = {"ternary": grid_count(ternary_step, "ternary"),
+              "quaternary": grid_count(quaternary_step, "quaternary")}
+    packed = pack_systems(systems)
+    grids = [system_grid(s, counts[s.form]) for s in systems]  # one array per system
+    sizes = [len(g) for g in grids]
+    fractions = np.zeros((sum(sizes), ZERO_COLUMN + 1))
+    start = 0
+    for grid in grids:
+        fractions[start:start + len(grid), : grid.shape[1]] = grid
+        start += len(grid)
+    index = np.repeat(np.arange(len(systems), dtype=np.intp), sizes)
+    lattice = vegard(packed, index, fractions, packed.lattice_a_angstrom)
+    for array in (index, fractions, lattice):
+        array.flags.writeable = False
+    return DesignSpace(packed, index, fractions, lattice, ternary_step, quaternary_step)

@@ -1,0 +1,263 @@
+"""The composition finder: every alloy composition that meets a query, ranked.
+
+For the chosen system (or every system of the design space whose lattice kind matches the
+substrate's and that contains no excluded element), the search screens
+
+* every grid composition (ternaries in steps of 0.001, quaternaries 0.005 by default), and
+* exact roots: the lattice-matched composition of each ternary, the lattice-matched line of
+  each quaternary (solved exactly at every grid value of its driver fraction), and, for a gap
+  target, the compositions whose gap equals the target exactly (along each ternary, and along
+  each quaternary's lattice-matched line),
+
+with array operations over all of them at once, in a cascade: Vegard lattice constant and
+mismatch first, then the band gap of the survivors, then the critical thickness and the
+uncertainty of what remains. A layer-thickness limit is applied exactly without solving for
+h_c (``epitaxy.critical_strain``); the critical thickness itself (Lambert W) is computed for the
+matches when they are read.
+
+Ranking: score = sqrt(g^2 + m^2), with g the gap's distance from the target in units of the
+window's half-width on that side (0 without a gap target) and m = |f| / (mismatch limit, or
+1 % without one); ties go to the smaller gap uncertainty. Exact roots that meet both targets
+score 0 and come first.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+from numpy.typing import NDArray
+
+from screening import epitaxy
+from screening.alloys.bandgap import band_gap, gap_tables, gap_uncertainty
+from screening.alloys.design import DesignSpace, design_space, grid_count
+from screening.alloys.model import vegard
+from screening.alloys.properties import VALLEY_NAMES, check_lattice
+from screening.alloys.query import ALL_SYSTEMS, FinderQuery, GapWindow
+from screening.alloys.results import MATCH_KINDS, FinderResult
+from screening.alloys.roots import gap_roots_on_grid, gap_roots_on_paths, lattice_matched
+from screening.alloys.systems import (
+    AlloySystem,
+    design_space_systems,
+    parse_system,
+    require_measured_data,
+)
+
+_SLACK = 1e-12
+"""Tolerance of the limit comparisons, so that exact roots meet zero-width limits."""
+
+_SCORE_DECIMALS = 9
+"""Scores are compared to this many decimals, so that round-off does not outrank a tie-break."""
+
+_LATTICE_MATCHED, _TARGET_GAP, _BOTH = (MATCH_KINDS.index(k) for k in MATCH_KINDS[1:])
+
+
+def select_systems(query: FinderQuery) -> tuple[tuple[AlloySystem, ...], tuple[tuple[str, str],
+                                                                              ...]]:
+    """The systems a query screens, and the design-space systems it leaves out (with why).
+
+    Raises:
+        FormulaSyntaxError, CompositionError, ...: A system name that cannot be read.
+        MissingDataError: A named system whose end points lack measured data.
+        StructureMismatchError: A named system whose lattice differs from the substrate's.
+    """
+    excluded = set(query.exclude_elements)
+    if query.system.strip().lower() == ALL_SYSTEMS:
+        candidates = design_space_systems(tuple(sorted(set(query.families))))
+    else:
+        system = parse_system(query.system)
+        require_measured_data(system)
+        check_lattice(system, query.substrate)
+        candidates = (system,)
+    chosen, skipped = [], []
+    for system in candidates:
+        hit = sorted(excluded & set(system.elements))
+        if hit:
+            skipped.append((system.name, f"contains excluded element(s) {', '.join(hit)}"))
+        elif system.lattice != query.substrate.lattice:
+            skipped.append((system.name, f"{system.lattice} lattice; substrate "
+                                         f"{query.substrate.name} is {query.substrate.lattice}"))
+        else:
+            chosen.append(system)
+    return tuple(chosen), tuple(skipped)
+
+
+def _gap_window_distance(gap: NDArray[np.float64], window: GapWindow) -> NDArray[np.float64]:
+    below = window.target_eV - window.low_eV
+    above = window.high_eV - window.target_eV
+    scale_above = above if np.isfinite(above) else below
+    scale = np.where(gap < window.target_eV, below, scale_above)
+    deviation = np.abs(gap - window.target_eV)
+    return np.divide(deviation, scale, out=np.where(deviation > 0.0, np.inf, 0.0),
+                     where=scale > 0.0)
+
+
+class _Search:
+    """One query's evaluation over a design space (vectorised over compositions)."""
+
+    def __init__(self, query: FinderQuery, space: DesignSpace) -> None:
+        self.query = query
+        self.space = space
+        self.packed = space.packed
+        self.tables = gap_tables(space.packed, float(query.temperature_K))
+        self.a_sub = float(query.substrate.lattice_a_angstrom)
+        self.zincblende = np.array([s.structure == "zincblende" for s in self.packed.systems])
+
+    def gap(self, system_index: NDArray[np.intp], fractions: NDArray[np.float64]
+            ) -> tuple[NDArray[np.float64], NDArray[np.intp]]:
+        """Gap (eV) and channel of each composition."""
+        return band_gap(self.packed, self.tables, system_index, fractions)
+
+    def gap_only(self, system_index: NDArray[np.intp], fractions: NDArray[np.float64]
+                 ) -> NDArray[np.float64]:
+        """Gap (eV) only; the signature the root finders use."""
+        return self.gap(system_index, fractions)[0]
+
+    def roots(self) -> tuple[NDArray[np.intp], NDArray[np.float64], NDArray[np.intp]]:
+        """Exact compositions: lattice-matched, target gap, and both (none if not asked for)."""
+        if not self.query.exact_roots:
+            none = np.zeros(0, dtype=np.intp)
+            return none, np.zeros((0, self.space.fractions.shape[1])), none
+        systems = np.arange(len(self.packed.systems))
+        count = grid_count(self.space.quaternary_step, "quaternary")
+        matched = lattice_matched(self.packed, systems, self.a_sub, count)
+        parts = [(matched.system_index, matched.fractions,
+                  np.full(len(matched.t), _LATTICE_MATCHED))]
+        window = self.query.gap
+        if window is not None:
+            ternary = np.flatnonzero(self.packed.n_edges[self.space.system_index] == 1)
+            t_sys, t_frac = self.space.system_index[ternary], self.space.fractions[ternary]
+            g_sys, g_frac = gap_roots_on_grid(self.gap_only, t_sys, t_frac,
+                                              self.gap_only(t_sys, t_frac), window.target_eV,
+                                              self._brackets_within_limit(ternary))
+            parts.append((g_sys, g_frac, np.full(len(g_sys), _TARGET_GAP)))
+            b_sys, b_frac = gap_roots_on_paths(self.gap_only, self.packed, matched, self.a_sub,
+                                               window.target_eV)
+            parts.append((b_sys, b_frac, np.full(len(b_sys), _BOTH)))
+        system_index, fractions, kind = zip(*parts, strict=True)
+        return np.concatenate(system_index), np.concatenate(fractions), np.concatenate(kind)
+
+    def _brackets_within_limit(self, rows: NDArray[np.intp]) -> NDArray[np.bool_] | None:
+        """For neighbouring grid rows: can a composition between them meet the mismatch limit?
+
+        Vegard's law is linear along a ternary, so the mismatch between two neighbours lies
+        between theirs.
+        """
+        if self.query.max_mismatch is None:
+            return None
+        f = self.space.lattice_constant_angstrom[rows] / self.a_sub - 1.0
+        low, high = np.minimum(f[:-1], f[1:]), np.maximum(f[:-1], f[1:])
+        limit = self.query.max_mismatch + _SLACK
+        return (low <= limit) & (high >= -limit)
+
+    def screen(self, system_index: NDArray[np.intp], fractions: NDArray[np.float64],
+               kind: NDArray[np.intp], lattice: NDArray[np.float64]) -> dict[str, NDArray]:
+        """Apply every limit to a set of compositions; return the survivors' columns."""
+        query = self.query
+        mismatch = lattice / self.a_sub - 1.0
+        keep = np.ones(len(system_index), dtype=bool)
+        if query.max_mismatch is not None:
+            keep &= np.abs(mismatch) <= query.max_mismatch + _SLACK
+        rows = np.flatnonzero(keep)
+        gap, channel = self.gap(system_index[rows], fractions[rows])
+        if query.gap is not None:
+            inside = ((gap >= query.gap.low_eV - _SLACK) & (gap <= query.gap.high_eV + _SLACK))
+            rows, gap, channel = rows[inside], gap[inside], channel[inside]
+        sys_rows, frac_rows, lattice_rows = system_index[rows], fractions[rows], lattice[rows]
+        c11 = vegard(self.packed, sys_rows, frac_rows, self.packed.c11_GPa)
+        c12 = vegard(self.packed, sys_rows, frac_rows, self.packed.c12_GPa)
+        poisson, assumed = epitaxy.poisson_ratio_001(c11, c12)
+        applies = self.zincblende[sys_rows]
+        if query.layer_thickness_nm is not None:  # h < h_c exactly when |eps| < eps_c(h)
+            strain = epitaxy.in_plane_strain(lattice_rows, self.a_sub)
+            limit = epitaxy.critical_strain(
+                query.layer_thickness_nm * epitaxy.ANGSTROM_PER_NM,
+                epitaxy.burgers_vector_60(lattice_rows), poisson, query.geometry)
+            below = applies & (np.abs(strain) < limit)
+            rows, gap, channel, poisson, assumed = (
+                rows[below], gap[below], channel[below], poisson[below], assumed[below])
+            sys_rows, frac_rows, applies = sys_rows[below], frac_rows[below], applies[below]
+        uncertainty, default = gap_uncertainty(self.packed, self.tables, sys_rows, frac_rows,
+                                               channel)
+        return {"system_index": sys_rows, "fractions": frac_rows, "kind": kind[rows],
+                "lattice_constant_angstrom": lattice[rows], "mismatch": mismatch[rows],
+                "band_gap_eV": gap, "band_gap_uncertainty_eV": uncertainty,
+                "valley": VALLEY_NAMES[channel], "default_bowing": default,
+                "poisson_ratio": poisson, "poisson_assumed": assumed,
+                "critical_thickness_applies": applies}
+
+
+def _composition_keys(packed_systems: tuple[AlloySystem, ...], system_index: NDArray[np.intp],
+                      fractions: NDArray[np.float64]) -> NDArray[np.uint64]:
+    """A hash of each composition that ignores which system it was reached through.
+
+    Each element gets a fixed pseudo-random 64-bit multiplier; the key is the sum over the
+    elements of multiplier * round(fraction * 2^30) (wrapping), so In0.5Ga0.5As from InGaAs
+    and from AlInGaAs (Al = 0) get the same key.
+    """
+    elements = sorted({e for s in packed_systems for e in s.elements})
+    multipliers = np.random.default_rng(0).integers(
+        1, 2**63, size=len(elements) + 1, dtype=np.uint64)
+    position = {e: i for i, e in enumerate(elements)}
+    width = fractions.shape[1]
+    table = np.full((len(packed_systems), width), len(elements), dtype=np.intp)
+    for s, system in enumerate(packed_systems):  # loop over systems
+        table[s, : len(system.elements)] = [position[e] for e in system.elements]
+    steps = np.rint(fractions * 2.0**30).astype(np.uint64)
+    with np.errstate(over="ignore"):
+        return (multipliers[table[system_index]] * steps).sum(axis=1, dtype=np.uint64)
+
+
+def _deduplicated(columns: dict[str, NDArray], systems: tuple[AlloySystem, ...]
+                  ) -> NDArray[np.intp]:
+    """Rows to keep, one per composition: the smallest system's, exact roots before grid."""
+    n_elements = np.array([len(s.elements) for s in systems])[columns["system_index"]]
+    order = np.lexsort((-columns["kind"], n_elements))
+    keys = _composition_keys(systems, columns["system_index"], columns["fractions"])
+    _, first = np.unique(keys[order], return_index=True)
+    return order[first]
+
+
+def _rank(columns: dict[str, NDArray], query: FinderQuery, systems: tuple[AlloySystem, ...]
+          ) -> dict[str, NDArray]:
+    """Drop duplicate compositions (exact roots win) and sort best first."""
+    keep = _deduplicated(columns, systems)
+    columns = {name: values[keep] for name, values in columns.items()}
+    gap_term = (np.zeros(len(keep)) if query.gap is None
+                else _gap_window_distance(columns["band_gap_eV"], query.gap))
+    score = np.hypot(gap_term, np.abs(columns["mismatch"]) / query.mismatch_scale)
+    order = np.lexsort((columns["band_gap_uncertainty_eV"], np.round(score, _SCORE_DECIMALS)))
+    columns["score"] = score
+    return {name: values[order] for name, values in columns.items()}
+
+
+def find_compositions(query: FinderQuery) -> FinderResult:
+    """Every composition that meets the query, ranked best first.
+
+    Args:
+        query: The search (system, substrate, gap window, limits, exclusions, grid steps).
+
+    Returns:
+        The ranked matches; an empty result when nothing meets the query.
+
+    Raises:
+        BondgapInputError: A subclass naming what is wrong with the query (out-of-range number,
+            unknown element or geometry, unreadable system, a named system without data or of
+            the other lattice kind than the substrate).
+    """
+    query.validate()
+    systems, skipped = select_systems(query)
+    grid_count(query.ternary_step, "ternary")
+    grid_count(query.quaternary_step, "quaternary")
+    geometry = epitaxy.misfit_geometry(query.geometry)
+    if not systems:
+        return FinderResult.empty(query, skipped, geometry)
+    space = design_space(systems, query.ternary_step, query.quaternary_step)
+    search = _Search(query, space)
+    root_sys, root_frac, root_kind = search.roots()
+    root_lattice = vegard(space.packed, root_sys, root_frac, space.packed.lattice_a_angstrom)
+    parts = [search.screen(root_sys, root_frac, root_kind, root_lattice),
+             search.screen(space.system_index, space.fractions,
+                           np.zeros(space.size, dtype=np.intp), space.lattice_constant_angstrom)]
+    columns = {name: np.concatenate([part[name] for part in parts]) for name in parts[0]}
+    ranked = _rank(columns, query, systems)
+    return FinderResult(query=query, systems=systems, skipped=skipped,
+                        points_screened=space.size + len(root_sys), geometry=geometry, **ranked)
