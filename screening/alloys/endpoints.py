@@ -1,10 +1,10 @@
 """End-point band gaps of alloys: the one place where the alloy engine asks for binary gaps.
 
-Measured 300 K gaps from the seed data (``screening.reference``), moved to the temperature
-asked for by each compound's temperature law (``screening.temperature``: Varshni or
-Bose-Einstein per valley, a flagged default shape where no law is held). A measured gap carries
-no model uncertainty (0 eV). Binaries without a measured gap, and semimetals (gap <= 0, whose
-gap the temperature laws do not describe), give NaN.
+The gaps come from `screening.gaps` at the temperature asked for: a measured gap (moved from
+300 K by the compound's temperature law) carries no model uncertainty (0 eV); a binary without
+a measured gap gets the calibrated estimate with its cross-validated uncertainty. Semimetals
+(measured gap <= 0, which the temperature laws do not describe) and formulas outside the
+catalogue give NaN.
 """
 
 from __future__ import annotations
@@ -14,8 +14,8 @@ from collections.abc import Sequence
 import numpy as np
 from numpy.typing import NDArray
 
-from screening.reference import measured_compounds
-from screening.temperature import gaps_at_temperature
+from screening.evaluate import catalogue_table
+from screening.gaps import gaps_at
 
 
 def endpoint_gaps(
@@ -30,13 +30,15 @@ def endpoint_gaps(
     Returns:
         (gap_eV, uncertainty_eV), arrays in the order of ``formulas``; NaN where unknown.
     """
-    measured = measured_compounds()
-    gap_300K = np.array(
-        [float(measured.get(f, {})["band_gap"].value) if "band_gap" in measured.get(f, {})
-         else np.nan for f in formulas]
-    )
     if not len(formulas):
         return np.zeros(0), np.zeros(0)
-    gaps = gaps_at_temperature(list(formulas), gap_300K, float(temperature_K)).gap_eV[:, 0]
-    uncertainty = np.where(np.isfinite(gaps), 0.0, np.nan)
-    return gaps, uncertainty
+    at = gaps_at(float(temperature_K))
+    position = {c.formula: i for i, c in enumerate(catalogue_table().compounds)}
+    index = np.array([position.get(f, -1) for f in formulas])
+    inside = index >= 0
+    safe = np.where(inside, index, 0)
+    measured = at.value_is_measured[safe]
+    gap = np.where(measured, at.measured_eV[safe], at.estimate_eV[safe])
+    gap = np.where(inside & ~(measured & (at.measured_eV[safe] <= 0)), gap, np.nan)
+    uncertainty = np.where(measured, 0.0, at.uncertainty_eV[safe])
+    return gap, np.where(np.isfinite(gap), uncertainty, np.nan)

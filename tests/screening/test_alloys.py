@@ -239,7 +239,8 @@ def test_endpoint_gaps_are_measured_values_at_300K() -> None:
     gaps, uncertainty = endpoint_gaps(["GaAs", "InP", "BAs"], 300.0)
     assert gaps[:2] == pytest.approx([_gap("GaAs"), _gap("InP")], abs=1e-12)
     assert uncertainty[:2].tolist() == [0.0, 0.0]
-    assert np.isnan(gaps[2]) and np.isnan(uncertainty[2])
+    # BAs has no measured gap: the calibrated estimate comes with its uncertainty.
+    assert np.isfinite(gaps[2]) and uncertainty[2] > 0
 
 
 # ------------------------------------------------------------------------------------------
