@@ -12,7 +12,9 @@ from collections.abc import Sequence
 
 from screening.errors import BondgapInputError
 
-COMMAND_MODULES: tuple[str, ...] = ("levels", "serve", "show", "list", "bands")
+COMMAND_MODULES: tuple[str, ...] = (
+    "levels", "serve", "show", "list", "bands", "match", "substrates", "shortlist",
+)
 """Modules of `app.commands`, each with `register(subparsers)` that sets `func` on its parser."""
 
 

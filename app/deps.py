@@ -70,6 +70,16 @@ def table_query(
         str | None,
         Query(description=f"Gap kind (measured, else sp3 model): {', '.join(KIND_CHOICES)}"),
     ] = None,
+    exclude: Annotated[
+        list[str] | None,
+        Query(description="Leave out compounds containing these elements: exclude=As,Cd "
+                          "(or the parameter repeated)"),
+    ] = None,
+    no_rohs: Annotated[
+        bool,
+        Query(description="Leave out compounds with an element restricted by RoHS "
+                          "(Directive 2011/65/EU Annex II: Cd, Hg, Pb)"),
+    ] = False,
 ) -> TableQuery:
     """Read the table filters from the URL (shared by the table page and the API)."""
     return TableQuery.parse(
@@ -84,6 +94,8 @@ def table_query(
         wl_min=wl_min,
         wl_max=wl_max,
         kind=kind,
+        exclude=exclude,
+        no_rohs=no_rohs,
     )
 
 

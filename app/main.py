@@ -15,7 +15,7 @@ from starlette.exceptions import HTTPException as StarletteHTTPException
 
 import screening
 from app.config import Settings
-from app.routes import api, pages
+from app.routes import alloys, api, measurements, pages, shortlist_api, shortlist_pages, substrates
 from app.store import open_store
 from screening.errors import BondgapInputError
 
@@ -38,7 +38,8 @@ def _error(request: Request, status: int, message: str) -> Response:
 
 
 async def _input_error(request: Request, exc: Exception) -> Response:
-    return _error(request, 400, str(exc))
+    # A subclass may name its own 4xx status (404 not found, 409 conflict, 413 too large).
+    return _error(request, getattr(exc, "status_code", 400), str(exc))
 
 
 async def _validation_error(request: Request, exc: Exception) -> Response:
@@ -84,6 +85,11 @@ def create_app(settings: Settings) -> FastAPI:
     app.add_exception_handler(RequestValidationError, _validation_error)
     app.add_exception_handler(StarletteHTTPException, _http_error)
     app.include_router(api.router)
+    app.include_router(alloys.router)
+    app.include_router(substrates.router)
+    app.include_router(shortlist_api.router)
+    app.include_router(shortlist_pages.router)
+    app.include_router(measurements.router)
     app.include_router(pages.router)
     app.mount("/static", StaticFiles(directory=settings.static_dir), name="static")
 

@@ -7,9 +7,20 @@ The schema itself is owned by the Alembic revisions in `app/migrations/versions/
 from __future__ import annotations
 
 import json
+from datetime import datetime
 from typing import Any
 
-from sqlalchemy import Boolean, Float, String, Text
+from sqlalchemy import (
+    Boolean,
+    CheckConstraint,
+    DateTime,
+    Float,
+    ForeignKey,
+    Integer,
+    String,
+    Text,
+    UniqueConstraint,
+)
 from sqlalchemy.orm import DeclarativeBase, Mapped, mapped_column
 
 import screening
@@ -70,6 +81,27 @@ class CompoundResult(Base):
     tb_direct: Mapped[bool | None] = mapped_column(Boolean)
 
 
+
+class UserSubstrate(Base):
+    """A substrate of the user's own (revision 0003), beside the built-in table.
+
+    `structure` is "cubic", "hexagonal" or one of the engine's substrate structures
+    (`screening.epitaxy.LATTICE_OF_SUBSTRATE`); `a_angstrom` is the cubic a or the hexagonal
+    in-plane a, `c_angstrom` the hexagonal c (None for cubic ones). Names never repeat a
+    built-in name (checked by `app.substrates`).
+    """
+
+    __tablename__ = "user_substrates"
+    __table_args__ = (UniqueConstraint("name", name="uq_user_substrates_name"),)
+
+    id: Mapped[int] = mapped_column(Integer, primary_key=True)
+    name: Mapped[str] = mapped_column(String(40))
+    structure: Mapped[str] = mapped_column(String(16))
+    a_angstrom: Mapped[float] = mapped_column(Float)
+    c_angstrom: Mapped[float | None] = mapped_column(Float)
+    note: Mapped[str] = mapped_column(String(200), server_default="")
+    created_at: Mapped[datetime] = mapped_column(DateTime)
+
 def _dig(mapping: Any, *keys: str) -> Any:
     """Follow `keys` into nested dicts; None as soon as a level is missing or null."""
     for key in keys:
@@ -119,3 +151,70 @@ def row_values(report: dict[str, Any]) -> dict[str, Any]:
         "gap_kind_source": gap.get("kind_source"),
         "tb_direct": _dig(report, "tight_binding", "direct"),
     }
+
+
+class Shortlist(Base):
+    """A shortlist of candidates (revision 0004), with the conditions it was chosen under.
+
+    `substrate` names a built-in or user substrate (None: none chosen), `temperature_K` is the
+    temperature of the band gaps, `target` a JSON object (`app.conditions.Conditions`). Times
+    are UTC.
+    """
+
+    __tablename__ = "shortlists"
+    __table_args__ = (UniqueConstraint("name", name="uq_shortlists_name"),)
+
+    id: Mapped[int] = mapped_column(Integer, primary_key=True)
+    name: Mapped[str] = mapped_column(String(80))
+    note: Mapped[str] = mapped_column(Text, server_default="")
+    substrate: Mapped[str | None] = mapped_column(String(40))
+    temperature_K: Mapped[float] = mapped_column(Float, server_default="300.0")
+    target: Mapped[str | None] = mapped_column(Text)
+    created_at: Mapped[datetime] = mapped_column(DateTime)
+    updated_at: Mapped[datetime] = mapped_column(DateTime)
+
+
+class ShortlistItem(Base):
+    """One candidate on a shortlist: a normalised binary or alloy formula, with a note."""
+
+    __tablename__ = "shortlist_items"
+    __table_args__ = (
+        UniqueConstraint("shortlist_id", "formula", name="uq_shortlist_items_formula"),
+    )
+
+    id: Mapped[int] = mapped_column(Integer, primary_key=True)
+    shortlist_id: Mapped[int] = mapped_column(
+        ForeignKey("shortlists.id", ondelete="CASCADE"), index=True
+    )
+    formula: Mapped[str] = mapped_column(String(64))
+    note: Mapped[str] = mapped_column(Text, server_default="")
+    position: Mapped[int] = mapped_column(Integer)
+    added_at: Mapped[datetime] = mapped_column(DateTime)
+
+
+MEASUREMENT_PROPERTIES: tuple[str, ...] = ("lattice_a", "band_gap", "eps_inf")
+"""Properties a user may import measured values of (`app.imports`)."""
+
+
+class UserMeasurement(Base):
+    """A value the user measured (revision 0004), shown beside the handbook values as theirs.
+
+    One row per (formula, property): a later import replaces the earlier value. `value` is in
+    the canonical unit `unit` (angstrom, eV, or "" for eps_inf); `batch` names the import.
+    """
+
+    __tablename__ = "user_measurements"
+    __table_args__ = (
+        UniqueConstraint("formula", "property", name="uq_user_measurements_formula_property"),
+        CheckConstraint("property IN ('lattice_a', 'band_gap', 'eps_inf')",
+                        name="ck_user_measurements_property"),
+    )
+
+    id: Mapped[int] = mapped_column(Integer, primary_key=True)
+    formula: Mapped[str] = mapped_column(String(64), index=True)
+    property: Mapped[str] = mapped_column(String(16))
+    value: Mapped[float] = mapped_column(Float)
+    unit: Mapped[str] = mapped_column(String(16))
+    source: Mapped[str] = mapped_column(Text)
+    batch: Mapped[str] = mapped_column(String(32), index=True)
+    imported_at: Mapped[datetime] = mapped_column(DateTime)

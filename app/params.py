@@ -15,6 +15,7 @@ from app.columns import COLUMNS_BY_KEY
 from screening.bands import MAX_PATH_POINTS
 from screening.elements import FAMILIES
 from screening.errors import BondgapInputError
+from screening.hazards import parse_excluded
 from screening.report import MAX_TEMPERATURE_K
 from screening.structure import STRUCTURES
 
@@ -117,6 +118,8 @@ class TableQuery:
     wl_min: float | None = None
     wl_max: float | None = None
     kind: str | None = None
+    exclude: tuple[str, ...] = ()
+    no_rohs: bool = False
 
     @property
     def temperature_K(self) -> float:
@@ -138,6 +141,8 @@ class TableQuery:
         wl_min: float | str | None = None,
         wl_max: float | str | None = None,
         kind: str | None = None,
+        exclude: str | list[str] | tuple[str, ...] | None = None,
+        no_rohs: bool = False,
     ) -> TableQuery:
         """Check raw filter values (as typed in a form, a URL or the CLI) and return the query.
 
@@ -145,6 +150,7 @@ class TableQuery:
             QueryError: Unknown family, structure, kind or sort key; a bound that is not a
                 finite number; an empty window; a wavelength <= 0; a temperature outside
                 0 to 2000 K.
+            UnknownElementError: A symbol in `exclude` that is not an element.
         """
         gap_min, gap_max = _window(gap_min, gap_max, "gap", "eV", positive=False)
         wl_min, wl_max = _window(wl_min, wl_max, "wl", "nm", positive=True)
@@ -165,8 +171,17 @@ class TableQuery:
             wl_min=wl_min,
             wl_max=wl_max,
             kind=_choice(kind, KIND_CHOICES, "gap kind"),
+            exclude=parse_excluded(exclude),
+            no_rohs=no_rohs,
         )
 
     def as_params(self) -> dict[str, Any]:
-        """Return the query as URL parameters (only those set), for links and the API echo."""
-        return {k: v for k, v in asdict(self).items() if v is not None and v is not False}
+        """Return the query as URL parameters (only those set), for links and the API echo.
+
+        Excluded elements are joined with commas (`exclude=As,Cd`).
+        """
+        params = {k: v for k, v in asdict(self).items()
+                  if v is not None and v is not False and v != ()}
+        if self.exclude:
+            params["exclude"] = ",".join(self.exclude)
+        return params

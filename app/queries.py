@@ -28,6 +28,7 @@ from app.params import (
     QueryError,
     TableQuery,
 )
+from screening.hazards import excluded, rohs_restricted
 
 __all__ = [
     "FAMILY_CHOICES", "KIND_CHOICES", "STRUCTURE_CHOICES", "QueryError", "TableQuery",
@@ -69,6 +70,7 @@ def row_dict(result: CompoundResult) -> dict[str, Any]:
     """One table row as the API, CSV and page see it (keys from `COLUMNS`, plus hazards)."""
     row = {c.key: getattr(result, c.attr) for c in COLUMNS}
     row["hazard_elements"] = [e for e in result.hazard_elements.split(",") if e]
+    row["rohs_restricted"] = rohs_restricted(dict.fromkeys((result.cation, result.anion)))
     return row
 
 
@@ -90,6 +92,7 @@ def table_rows(session: Session, *, query: TableQuery) -> list[dict[str, Any]]:
         r for r in rows
         if _within(r["band_gap_eV"], query.gap_min, query.gap_max)
         and _within(r["wavelength_nm"], query.wl_min, query.wl_max)
+        and not excluded((r["cation"], r["anion"]), query.exclude, query.no_rohs)
     ]
     return _sorted(rows, query.sort, query.desc)
 
@@ -116,37 +119,49 @@ def table_payload(session: Session, *, query: TableQuery) -> dict[str, Any]:
 
 
 def rows_csv(rows: list[dict[str, Any]]) -> str:
-    """Render table rows as CSV text: a header of column keys, hazards joined with spaces."""
+    """Render table rows as CSV text: a header of column keys, element lists joined with spaces."""
     out = io.StringIO()
     writer = csv.writer(out, lineterminator="\n")
-    writer.writerow([*COLUMNS_BY_KEY, "hazard_elements"])
+    writer.writerow([*COLUMNS_BY_KEY, "hazard_elements", "rohs_restricted"])
     for row in rows:
         values = ["" if row[k] is None else row[k] for k in COLUMNS_BY_KEY]
-        writer.writerow([*values, " ".join(row["hazard_elements"])])
+        writer.writerow([*values, " ".join(row["hazard_elements"]),
+                         " ".join(row["rohs_restricted"])])
     return out.getvalue()
 
 
 def compound_report(
-    session: Session, *, formula: str, temperature_K: float | None = None
+    session: Session, *, formula: str, temperature_K: float | None = None,
+    on: str | None = None, geometry: str | None = None,
 ) -> dict[str, Any]:
-    """Return the engine's report on one compound, its band gap at `temperature_K`.
+    """Return the engine's report on one compound or alloy, its band gap at `temperature_K`.
 
     The stored report where the compound is catalogued and the temperature is the stored
-    300 K; otherwise the engine computes it (a few ms once warm).
+    300 K; otherwise the engine computes it (a few ms once warm): the compound report of a
+    binary, the alloy report of an alloy (`screening.alloy_report.material_report`). With `on`
+    (a substrate, built-in or the user's) the report gains an `epitaxy` block.
 
     Raises:
-        BondgapInputError: The text is not an octet binary formula, or the temperature is
-            outside 0 to 2000 K (the engine's message).
+        BondgapInputError: The text is not an octet binary or alloy formula, the temperature
+            is outside 0 to 2000 K, or the layer cannot be put on the substrate (the message
+            says why).
     """
-    from screening.report import compound_report as compute
-    from screening.report import normalise_formula
+    from screening.alloy_report import material_report, normalise_material
 
-    normalised = normalise_formula(formula)
+    normalised = normalise_material(formula)
     temperature = STORED_TEMPERATURE_K if temperature_K is None else temperature_K
     stored = session.get(CompoundResult, normalised)
     if stored and temperature == STORED_TEMPERATURE_K:
-        return json.loads(stored.report_json)
-    return compute(normalised, temperature_K=temperature)
+        report = json.loads(stored.report_json)
+    else:
+        report = material_report(normalised, temperature_K=temperature)
+    if on is not None and on.strip():
+        from app.substrates import resolve_substrate
+        from screening.layer import layer_block
+
+        substrate = resolve_substrate(session, on)
+        report["epitaxy"] = layer_block(normalised, substrate, geometry or "single-uncapped")
+    return report
 
 
 def all_reports(session: Session) -> list[dict[str, Any]]:

@@ -11,6 +11,9 @@ from collections.abc import Iterable
 from dataclasses import dataclass
 from typing import Final
 
+from screening.elements import atomic_number
+from screening.errors import OutOfRangeError
+
 CAUTION: Final[str] = (
     "Follow the safety data sheets, local codes and your site's safety rules for every "
     "element, compound and precursor; these notes are reminders, not safety data."
@@ -89,3 +92,56 @@ and IV and your product's category."""
 def rohs_restricted(elements: Iterable[str]) -> list[str]:
     """The given elements that RoHS Annex II restricts."""
     return [e for e in elements if e in ROHS_RESTRICTED]
+
+
+MAX_EXCLUDED: Final[int] = 40
+"""Most element symbols an exclusion list may name."""
+
+
+def parse_excluded(text: str | Iterable[str] | None) -> tuple[str, ...]:
+    """Read an "exclude elements" list: "As,Cd", "As Cd", or symbols one by one.
+
+    Args:
+        text: Comma- or space-separated symbols, an iterable of them, or None.
+
+    Returns:
+        The distinct symbols in the order given (empty for None or an empty text).
+
+    Raises:
+        UnknownElementError: A symbol that is not an element (symbols are case-sensitive).
+        OutOfRangeError: More than :data:`MAX_EXCLUDED` symbols.
+    """
+    if text is None:
+        return ()
+    parts = [text] if isinstance(text, str) else list(text)
+    symbols: list[str] = []
+    for part in parts:
+        for symbol in str(part).replace(",", " ").split():
+            atomic_number(symbol)  # raises for anything that is not an element
+            if symbol not in symbols:
+                symbols.append(symbol)
+    if len(symbols) > MAX_EXCLUDED:
+        raise OutOfRangeError(
+            f"exclude at most {MAX_EXCLUDED} elements, not {len(symbols)}"
+        )
+    return tuple(symbols)
+
+
+def excluded(elements: Iterable[str], exclude: Iterable[str] = (), no_rohs: bool = False) -> bool:
+    """Whether a candidate made of `elements` is filtered out.
+
+    Shared by the compound table, the composition finder and the command line, so every
+    "exclude elements" and "exclude RoHS-restricted" filter means the same thing.
+
+    Args:
+        elements: The candidate's elements (both sites; for an alloy every element present).
+        exclude: Element symbols the user excluded.
+        no_rohs: Also exclude every candidate containing an element of :data:`ROHS_RESTRICTED`.
+
+    Returns:
+        True if any element is excluded (or RoHS-restricted when `no_rohs`).
+    """
+    present = set(elements)
+    if present & set(exclude):
+        return True
+    return bool(no_rohs and present & ROHS_RESTRICTED.keys())

@@ -8,8 +8,9 @@
   function wireFilters() {
     const form = document.querySelector("form.filters");
     if (!form) return;
-    // Apply a select or the checkbox as soon as it changes.
+    // Apply a select or the checkbox as soon as it changes (not on forms marked data-manual).
     form.querySelectorAll("select, input[type=checkbox]").forEach(function (el) {
+      if (form.hasAttribute("data-manual")) return;
       el.addEventListener("change", function () { form.requestSubmit(); });
     });
     // Keep URLs short: leave empty fields out of the query string.

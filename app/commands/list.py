@@ -11,6 +11,7 @@ from app import queries, views
 from app.columns import COLUMNS_BY_KEY
 from app.commands.common import open_sessions
 from app.config import Settings, add_db_argument
+from screening.hazards import ROHS_SOURCE
 
 TEXT_COLUMNS: tuple[str, ...] = (
     "formula", "family", "structure_observed", "band_gap_eV", "band_gap_estimate_eV",
@@ -42,6 +43,11 @@ def register(sub: argparse._SubParsersAction) -> None:
                         "else from the sp3 model)")
     parser.add_argument("--measured-only", action="store_true",
                         help="only compounds with a measured band gap")
+    parser.add_argument("--exclude", metavar="ELEMENTS",
+                        help="leave out compounds containing these elements, e.g. As,Cd")
+    parser.add_argument("--no-rohs", action="store_true",
+                        help="leave out compounds with an element restricted by RoHS "
+                        "(Directive 2011/65/EU Annex II: Cd, Hg, Pb)")
     parser.add_argument("--sort", metavar="COLUMN", default="formula",
                         help=f"column to sort by: {', '.join(COLUMNS_BY_KEY)}")
     parser.add_argument("--desc", action="store_true", help="sort in descending order")
@@ -63,8 +69,10 @@ def render_text(rows: list[dict[str, Any]]) -> str:
     lines.append(f"{len(rows)} compounds; marks: m measured, est. estimate ± leave-one-out "
                  "error of the family, model from the sp3 model")
     caution = views.caution_line(e for row in rows for e in row["hazard_elements"])
+    rohs = sorted({e for row in rows for e in row["rohs_restricted"]})
     if caution:
-        lines.append(f"Caution: {caution}.")
+        rohs_text = f" RoHS: {', '.join(rohs)} restricted by {ROHS_SOURCE}." if rohs else ""
+        lines.append(f"Caution: {caution}.{rohs_text}")
     return "\n".join(lines)
 
 
@@ -82,6 +90,8 @@ def run(args: argparse.Namespace) -> int:
         wl_min=args.wl_min,
         wl_max=args.wl_max,
         kind=args.kind,
+        exclude=args.exclude,
+        no_rohs=args.no_rohs,
     )
     sessions = open_sessions(Settings.from_args(args))
     with sessions() as session:

@@ -6,7 +6,7 @@ import argparse
 import json
 from typing import Any
 
-from app import gap_views, queries, views
+from app import alloy_views, gap_views, queries, views
 from app.commands.common import open_sessions
 from app.config import Settings, add_db_argument
 from app.params import parse_temperature
@@ -16,13 +16,19 @@ def register(sub: argparse._SubParsersAction) -> None:
     """Add the `show` sub-command."""
     parser = sub.add_parser(
         "show",
-        help="everything about one compound",
-        description="Print every number about one octet binary compound with its unit, route "
-        "and source; band gaps at --temperature (default 300 K). --json prints the object of "
-        "GET /api/compounds/FORMULA?temperature=K.",
+        help="everything about one compound or alloy",
+        description="Print every number about one octet binary compound or alloy (e.g. "
+        "In0.53Ga0.47As) with its unit, route and source; band gaps at --temperature (default "
+        "300 K); --on SUBSTRATE adds mismatch, strain and critical thickness. --json prints "
+        "the object of GET /api/compounds/FORMULA?temperature=K&on=SUBSTRATE.",
     )
-    parser.add_argument("formula", help="formula such as GaAs, ZnSe, Si (any order: AsGa)")
+    parser.add_argument("formula", help="formula such as GaAs, ZnSe, Si (any order: AsGa), or "
+                        "an alloy such as In0.53Ga0.47As")
     parser.add_argument("--json", action="store_true", help="print the report as JSON")
+    parser.add_argument("--on", metavar="SUBSTRATE",
+                        help="a substrate (built-in or yours): mismatch, strain, h_c")
+    parser.add_argument("--geometry", default="single-uncapped",
+                        help="Matthews-Blakeslee geometry of the critical thickness")
     parser.add_argument("--temperature", metavar="K",
                         help="temperature of the band gaps, 0 to 2000 K (default 300)")
     add_db_argument(parser)
@@ -35,11 +41,17 @@ def render_text(report: dict[str, Any]) -> str:
         f"{report['formula']}  ({report['family']}; cation {report['cation']}, "
         f"anion {report['anion']}; engine model {report.get('model_version')})"
     ]
-    sections = [
-        gap_views.band_gap_section(report),
-        *views.report_sections(report),
-        gap_views.tight_binding_section(report),
-    ]
+    if report.get("alloy"):
+        sections = [alloy_views.gap_section(report), alloy_views.composition_section(report),
+                    alloy_views.lattice_section(report), *alloy_views.vca_sections(report)]
+    else:
+        sections = [
+            gap_views.band_gap_section(report),
+            *views.report_sections(report),
+            gap_views.tight_binding_section(report),
+        ]
+    if report.get("epitaxy"):
+        sections.insert(1, alloy_views.epitaxy_section(report["epitaxy"]))
     for section in sections:
         lines += ["", section.title]
         width = max(len(line.label) for line in section.lines)
@@ -61,6 +73,7 @@ def run(args: argparse.Namespace) -> int:
     sessions = open_sessions(Settings.from_args(args))
     with sessions() as session:
         report = queries.compound_report(session, formula=args.formula,
-                                         temperature_K=temperature)
+                                         temperature_K=temperature, on=args.on,
+                                         geometry=args.geometry)
     print(json.dumps(report, indent=2, ensure_ascii=False) if args.json else render_text(report))
     return 0

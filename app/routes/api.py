@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from typing import Annotated, Any
 
-from fastapi import APIRouter, Path
+from fastapi import APIRouter, Path, Query
 from fastapi.responses import PlainTextResponse
 
 import screening
@@ -21,6 +21,10 @@ ERRORS: dict[int | str, dict[str, Any]] = {
 }
 FormulaPath = Annotated[
     str, Path(description="Formula of an octet binary compound, e.g. GaAs, ZnSe, Si")
+]
+MaterialPath = Annotated[
+    str, Path(description="Formula of an octet binary compound or alloy, e.g. GaAs, "
+                          "In0.53Ga0.47As, In0.73Ga0.27As0.58P0.42")
 ]
 
 
@@ -61,16 +65,24 @@ def get_bands(formula: FormulaPath, points: PointsDep) -> dict[str, Any]:
     return bands_payload(formula, points=points)
 
 
-@router.get("/compounds/{formula:path}", responses=ERRORS, summary="One compound")
+@router.get("/compounds/{formula:path}", responses=ERRORS, summary="One compound or alloy")
 def get_compound(
-    session: SessionDep, formula: FormulaPath, temperature: TemperatureDep
+    session: SessionDep, formula: MaterialPath, temperature: TemperatureDep,
+    on: Annotated[str | None, Query(
+        description="A substrate (built-in or yours): adds the epitaxy block")] = None,
+    geometry: Annotated[str | None, Query(
+        description="Matthews-Blakeslee geometry of the epitaxy block")] = None,
 ) -> dict[str, Any]:
-    """Everything known about one compound (as bondgap show FORMULA --json --temperature K).
+    """Everything known about one compound or alloy (as bondgap show FORMULA --json).
 
     The object follows docs/report-schema.md; any spelling of the formula is accepted
-    (AsGa gives GaAs). The band_gap block is at the temperature (default 300 K).
+    (AsGa gives GaAs, Ga0.47In0.53As gives In0.53Ga0.47As). Alloys get the same keys plus
+    alloy, fractions, end_points and flags. The band_gap block is at the temperature
+    (default 300 K); with on=SUBSTRATE an epitaxy block (mismatch, strain, critical
+    thickness in the named geometry) is added.
     """
-    return queries.compound_report(session, formula=formula, temperature_K=temperature)
+    return queries.compound_report(session, formula=formula, temperature_K=temperature,
+                                   on=on, geometry=geometry)
 
 
 @router.get("/accuracy", summary="Band-gap model accuracy", tags=["model"])

@@ -12,6 +12,8 @@ from app import gap_views, queries, views
 from app.accuracy import accuracy_payload
 from app.columns import COLUMNS
 from app.deps import SessionDep, TableQueryDep, TemperatureDep
+from app.page_extras import report_extras, table_extras
+from app.routes.alloy_page import alloy_page
 from screening.bands import MODEL_LIMITS
 
 router = APIRouter(include_in_schema=False)
@@ -68,18 +70,24 @@ def compounds_page(request: Request, session: SessionDep, query: TableQueryDep) 
         "json_url": "/api/compounds" + ("?" + urlencode(params) if params else ""),
         "caution": views.caution_line(hazards),
         "stored_model_version": queries.model_version(session),
+        **table_extras(session, rows),
     })
 
 
 @router.get("/compounds/{formula:path}")
 def compound_page(
-    request: Request, session: SessionDep, formula: str, temperature: TemperatureDep
+    request: Request, session: SessionDep, formula: str, temperature: TemperatureDep,
+    on: str | None = None, geometry: str | None = None,
 ) -> Response:
-    """Everything about one compound: band gap at a temperature, numbers, three charts."""
+    """Everything about one compound or alloy: band gap at a temperature, numbers, charts."""
     report = queries.compound_report(session, formula=formula, temperature_K=temperature)
     at = "" if temperature is None else "?" + urlencode({"temperature": f"{temperature:.10g}"})
     if report["formula"] != formula:
+        if report.get("alloy") and request.query_params:  # keep substrate and geometry
+            at = "?" + urlencode(request.query_params.multi_items())
         return RedirectResponse("/compounds/" + quote(report["formula"]) + at, status_code=307)
+    if report.get("alloy"):
+        return alloy_page(request, session, report, on=on, geometry=geometry)
     charts = {
         "ehc": views.eh_c_chart(queries.all_reports(session), formula=report["formula"]),
         "levels": views.bond_levels_chart(report),
@@ -96,6 +104,7 @@ def compound_page(
         "hazard_notes": report.get("hazards", {}).get("notes") or [],
         "json_url": "/api/compounds/" + quote(report["formula"]) + at,
         "bands_url": "/api/compounds/" + quote(report["formula"]) + "/bands",
+        **report_extras(session, report),
     })
 
 

@@ -40,6 +40,7 @@ from screening.alloys.systems import (
     parse_system,
     require_measured_data,
 )
+from screening.errors import CompositionError
 
 _SLACK = 1e-12
 """Tolerance of the limit comparisons, so that exact roots meet zero-width limits."""
@@ -64,6 +65,11 @@ def select_systems(query: FinderQuery) -> tuple[tuple[AlloySystem, ...], tuple[t
         candidates = design_space_systems(tuple(sorted(set(query.families))))
     else:
         system = parse_system(query.system)
+        if system.form == "binary":
+            raise CompositionError(
+                f"'{query.system}' is a binary compound, not an alloy system; name a system "
+                "with three or four elements (e.g. InGaAs, InGaAsP) or 'all'"
+            )
         require_measured_data(system)
         check_lattice(system, query.substrate)
         candidates = (system,)

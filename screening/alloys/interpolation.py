@@ -42,7 +42,8 @@ class EdgeLaw:
 
     Attributes:
         coefficients: (p0, p1, p2, p3) in eV.
-        uncertainty_eV: Uncertainty of the bowing parameter c0 (0 where tabulated).
+        uncertainty_eV: Uncertainty of the bowing parameter (stated, see
+            :func:`tabulated_bowing_uncertainty`; 0 for a published composition law).
         source: Where the bowing or law comes from.
         default: True where the bowing is the flagged default.
         uses_endpoints: False for a published law that does not use the end-point gaps.
@@ -200,8 +201,24 @@ def edge_law(first: str, second: str, valley: str, gap_first_eV: float, gap_seco
     c0, c1 = param.bowing_eV, param.bowing_linear_x_eV
     if param.compound_x1 != second:  # the table's x is 1 - u: C = (c0 + c1) - c1 u
         c0, c1 = c0 + c1, -c1
-    return EdgeLaw(bowed_polynomial(gap_first_eV, gap_second_eV, c0, c1), 0.0,
+    return EdgeLaw(bowed_polynomial(gap_first_eV, gap_second_eV, c0, c1),
+                   tabulated_bowing_uncertainty(c0 + c1 / 2.0),
                    f"{param.source} ({param.system}, {valley})", default=False)
+
+
+TABULATED_BOWING_RELATIVE_UNCERTAINTY = 0.2
+"""Stated relative uncertainty of a tabulated bowing parameter: the reviews give none, and
+published values for one alloy commonly differ by this much (common practice, no source)."""
+
+TABULATED_BOWING_MIN_UNCERTAINTY_EV = 0.05
+"""Floor of the stated uncertainty of a tabulated bowing parameter, eV (common practice, no
+source)."""
+
+
+def tabulated_bowing_uncertainty(bowing_eV: float) -> float:
+    """Stated uncertainty of a tabulated bowing parameter C (eV): max(0.05, 0.2 |C|)."""
+    return max(TABULATED_BOWING_MIN_UNCERTAINTY_EV,
+               TABULATED_BOWING_RELATIVE_UNCERTAINTY * abs(bowing_eV))
 
 
 @lru_cache(maxsize=1)

@@ -17,7 +17,7 @@ def test_list_returns_every_compound_with_columns(client) -> None:
     body = client.get("/api/compounds").json()
     assert body["count"] == len(catalogue_formulas()) == len(body["rows"])
     assert [c["key"] for c in body["columns"]] == list(COLUMNS_BY_KEY)
-    assert set(body["rows"][0]) == {*COLUMNS_BY_KEY, "hazard_elements"}
+    assert set(body["rows"][0]) == {*COLUMNS_BY_KEY, "hazard_elements", "rohs_restricted"}
     assert body["model_version"]
 
 
@@ -52,7 +52,7 @@ def test_csv_has_the_same_rows_as_json(client) -> None:
     assert [r["formula"] for r in parsed] == [r["formula"] for r in rows]
     for got, want in zip(parsed, rows, strict=True):
         for key, value in want.items():
-            if key == "hazard_elements":
+            if key in ("hazard_elements", "rohs_restricted"):
                 assert got[key].split() == value
             elif value is None:
                 assert got[key] == ""

@@ -1,0 +1,232 @@
+"""The composition finder as the app asks it: one checked query, one run, one payload.
+
+`MatchQuery.parse` checks what a user typed (form, URL or CLI); `run_match` resolves the
+substrate (built-in or the user's), runs the engine's `find_compositions`, and orders the
+matches; `match_payload` is the object of `GET /api/match` and `bondgap match --json`, and the
+finder page renders the same rows.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import asdict, dataclass, fields, replace
+from typing import Any
+
+import numpy as np
+from sqlalchemy.orm import Session
+
+from app.params import QueryError, parse_temperature
+from app.substrates import resolve_substrate
+from screening.alloys import (
+    ALL_SYSTEMS,
+    FinderQuery,
+    FinderResult,
+    GapWindow,
+    find_compositions,
+    parse_system,
+)
+from screening.alloys.query import DEFAULT_FAMILIES
+from screening.constants import HC_EV_NM
+from screening.elements import atomic_number
+from screening.epitaxy import GEOMETRIES, SubstrateSpec
+
+DEFAULT_TOLERANCE_EV = 0.01
+DEFAULT_LIMIT = 500
+MAX_GAP_EV = 20.0
+"""Largest target gap accepted: beyond any solid (LiF, about 14 eV, has the widest)."""
+MAX_LIMIT = 100_000
+SORT_KEYS: tuple[str, ...] = (
+    "rank", "formula", "lattice_constant_angstrom", "mismatch", "abs_mismatch", "band_gap_eV",
+    "band_gap_uncertainty_eV", "wavelength_nm", "critical_thickness_nm",
+)
+"""Columns the matches can be ordered by ("rank": the finder's score, best first)."""
+
+
+def _number(value: Any, name: str, rule: str, ok: Any) -> float | None:
+    """A finite number that passes `ok`, or None for an empty value."""
+    if value is None or (isinstance(value, str) and not value.strip()):
+        return None
+    try:
+        number = float(value)
+    except (TypeError, ValueError):
+        number = math.nan
+    if not (math.isfinite(number) and ok(number)):
+        raise QueryError(f"{name} must be {rule}, not {str(value)[:40]!r}")
+    return number
+
+
+def _system(text: str | None) -> str:
+    """"all", or the normalised name of an alloy system (ternary or quaternary)."""
+    clean = (text or "").strip()
+    if not clean or clean.lower() == ALL_SYSTEMS:
+        return ALL_SYSTEMS
+    system = parse_system(clean)
+    if system.form == "binary":
+        raise QueryError(f"{system.name} is a binary compound, not an alloy system; name a "
+                         "ternary or quaternary such as InGaAs or InGaAsP, or all")
+    return system.name
+
+
+def _elements(value: str | list[str] | tuple[str, ...] | None) -> tuple[str, ...]:
+    """Element symbols from "Cd, Hg" or ["Cd", "Hg"], each checked."""
+    items = [value] if isinstance(value, str) else list(value or ())
+    symbols = [s.strip() for item in items for s in item.replace(";", ",").replace(" ", ",")
+               .split(",") if s.strip()]
+    if len(symbols) > 20:
+        raise QueryError("exclude at most 20 elements")
+    cleaned = tuple(dict.fromkeys(s[:1].upper() + s[1:].lower() for s in symbols))
+    for symbol in cleaned:
+        atomic_number(symbol)
+    return cleaned
+
+
+@dataclass(frozen=True)
+class MatchQuery:
+    """A checked finder query as typed (before the substrate is looked up)."""
+
+    system: str = ALL_SYSTEMS
+    on: str = ""
+    gap: float | None = None
+    wavelength: float | None = None
+    tolerance: float | None = None
+    temperature: float | None = None
+    max_mismatch: float | None = None
+    thickness: float | None = None
+    geometry: str = "single-uncapped"
+    exclude: tuple[str, ...] = ()
+    sort: str = "rank"
+    desc: bool = False
+    limit: int = DEFAULT_LIMIT
+
+    @classmethod
+    def parse(cls, *, system: str | None = None, on: str | None = None, gap: Any = None,
+              wavelength: Any = None, tolerance: Any = None, temperature: Any = None,
+              max_mismatch: Any = None, thickness: Any = None, geometry: str | None = None,
+              exclude: Any = None, sort: str | None = None, desc: bool = False,
+              limit: Any = None) -> MatchQuery:
+        """Check raw values and return the query.
+
+        Raises:
+            QueryError (or another BondgapInputError): what is wrong and what is accepted.
+        """
+        if not (on or "").strip():
+            raise QueryError("give a substrate (on=NAME, --on NAME), e.g. InP or GaAs")
+        gap_eV = _number(gap, "the target gap", f"a number of eV > 0 and <= {MAX_GAP_EV:g} (no "
+                         "solid's gap exceeds about 14 eV)", lambda v: 0 < v <= MAX_GAP_EV)
+        shortest = HC_EV_NM / MAX_GAP_EV
+        wl = _number(wavelength, "the target wavelength", f"a number of nm > 0 and >= "
+                     f"{shortest:.0f} (a gap of at most {MAX_GAP_EV:g} eV)",
+                     lambda v: v >= shortest)
+        if gap_eV is not None and wl is not None:
+            raise QueryError("give the target as a gap or as a wavelength, not both")
+        tol = _number(tolerance, "the gap tolerance", "a number of eV >= 0", lambda v: v >= 0)
+        if tol is not None and gap_eV is None and wl is None:
+            raise QueryError("a gap tolerance needs a target gap or wavelength")
+        mismatch = _number(max_mismatch, "the mismatch limit",
+                           "a fraction from 0 to 1 (0.001 = 0.1 %)", lambda v: 0 <= v <= 1)
+        h = _number(thickness, "the layer thickness", "a number of nm > 0 and <= 1000000",
+                    lambda v: 0 < v <= 1e6)
+        shape = (geometry or "").strip() or "single-uncapped"
+        if shape not in GEOMETRIES:
+            raise QueryError(f"unknown critical-thickness geometry {shape[:40]!r}; choose one "
+                             f"of {', '.join(GEOMETRIES)}")
+        key = (sort or "").strip() or "rank"
+        if key not in SORT_KEYS:
+            raise QueryError(f"cannot sort matches by {key[:40]!r}; sortable: "
+                             f"{', '.join(SORT_KEYS)}")
+        count = _number(limit, "limit", f"a whole number from 1 to {MAX_LIMIT}",
+                        lambda v: v == int(v) and 1 <= v <= MAX_LIMIT)
+        return cls(system=_system(system), on=(on or "").strip(), gap=gap_eV, wavelength=wl,
+                   tolerance=tol, temperature=parse_temperature(temperature),
+                   max_mismatch=mismatch, thickness=h, geometry=shape,
+                   exclude=_elements(exclude), sort=key, desc=bool(desc),
+                   limit=DEFAULT_LIMIT if count is None else int(count))
+
+    @property
+    def temperature_K(self) -> float:
+        """Temperature of the gaps (300 K unless asked otherwise)."""
+        return 300.0 if self.temperature is None else self.temperature
+
+    def window(self) -> GapWindow | None:
+        """The accepted gaps: target +/- tolerance (eV), the target given as gap or wavelength."""
+        if self.gap is None and self.wavelength is None:
+            return None
+        tol = DEFAULT_TOLERANCE_EV if self.tolerance is None else self.tolerance
+        if self.gap is not None:
+            return GapWindow.from_gap(self.gap, tol)
+        target = HC_EV_NM / self.wavelength
+        window = GapWindow.from_gap(target, tol)
+        return replace(window, description=f"wavelength {self.wavelength:g} nm "
+                                           f"({target:.4f} eV) +/- {tol:g} eV")
+
+    def as_params(self) -> dict[str, Any]:
+        """The query as URL parameters (only those set), for links and the API echo."""
+        params = {k: v for k, v in asdict(self).items()
+                  if v is not None and v is not False and v != ()}
+        if self.exclude:
+            params["exclude"] = ",".join(self.exclude)
+        return params
+
+
+@dataclass(frozen=True)
+class MatchRun:
+    """A query, its substrate, the engine's result in the asked order, the ranked result."""
+
+    query: MatchQuery
+    substrate: SubstrateSpec
+    window: GapWindow | None
+    result: FinderResult
+    ranked: FinderResult
+
+
+def _column(result: FinderResult, key: str) -> np.ndarray:
+    """Values of a sortable numeric column over every match."""
+    if key == "abs_mismatch":
+        return np.abs(result.mismatch)
+    if key == "wavelength_nm":
+        gap = result.band_gap_eV
+        return np.where(gap > 0, HC_EV_NM / np.where(gap > 0, gap, 1.0), np.nan)
+    if key == "critical_thickness_nm":
+        return result.critical_thickness_nm
+    return np.asarray(getattr(result, key), dtype=float)
+
+
+def _order(result: FinderResult, key: str, desc: bool) -> np.ndarray:
+    """Permutation of the matches by a column; NaN values go last in either direction."""
+    if key == "rank":
+        return np.arange(len(result))
+    if key == "formula":  # by system name, then by the fractions in element order
+        names = np.array([s.name for s in result.systems] or [""])[result.system_index]
+        order = np.lexsort((*result.fractions.T[::-1], names))
+        return order[::-1] if desc else order
+    values = _column(result, key)
+    present = np.flatnonzero(~np.isnan(values))
+    order = present[np.argsort(-values[present] if desc else values[present], kind="stable")]
+    return np.concatenate([order, np.flatnonzero(np.isnan(values))])
+
+
+def reorder(result: FinderResult, order: np.ndarray) -> FinderResult:
+    """The same result with its matches in another order."""
+    n = len(result)
+    moved = {f.name: getattr(result, f.name)[order] for f in fields(result)
+             if isinstance(getattr(result, f.name), np.ndarray)
+             and getattr(result, f.name).shape[:1] == (n,)}
+    return replace(result, **moved)
+
+
+def run_match(session: Session | None, query: MatchQuery) -> MatchRun:
+    """Resolve the substrate, run the finder, order the matches.
+
+    Raises:
+        BondgapInputError: Unknown substrate, a system of the other lattice kind than the
+            substrate, a system without data (the engine's message).
+    """
+    substrate = resolve_substrate(session, query.on)
+    window = query.window()
+    ranked = find_compositions(FinderQuery(
+        substrate=substrate, system=query.system, gap=window,
+        temperature_K=query.temperature_K, max_mismatch=query.max_mismatch,
+        layer_thickness_nm=query.thickness, exclude_elements=query.exclude,
+        geometry=query.geometry, families=DEFAULT_FAMILIES))
+    ordered = reorder(ranked, _order(ranked, query.sort, query.desc))
+    return MatchRun(query, substrate, window, ordered, ranked)

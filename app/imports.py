@@ -1,0 +1,236 @@
+"""Importing the user's own measured values from CSV, all or nothing.
+
+The file (UTF-8, a byte-order mark allowed, at most 1 MB and 5000 rows) has the header
+`formula,property,value,unit,source` (any order; further columns are ignored; lines whose first
+cell starts with `#` are comments). Properties and their accepted units:
+
+    lattice_a   angstrom (also Å, A), nm, pm      stored in angstrom
+    band_gap    eV, meV                           stored in eV
+    eps_inf     empty, 1, -, dimensionless        stored without unit
+
+Every row is checked before anything is written: a missing column, text in the value cell, an
+unknown property or unit, a value outside its plausible range, a formula that is not a binary
+or alloy the engine knows, an empty source, a (formula, property) given twice: each error names
+its line and column, and nothing is stored. A good file is stored in one transaction; a value
+for a (formula, property) the user imported before replaces the earlier one.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import math
+import uuid
+from collections.abc import Iterator
+from typing import Any
+
+from sqlalchemy import delete, select, tuple_
+from sqlalchemy.orm import Session
+
+from app.models import UserMeasurement
+from app.params import QueryError
+from app.writes import utc_now, writing
+
+MAX_BYTES = 1_000_000
+MAX_ROWS = 5000
+MAX_SOURCE = 300
+MAX_ERRORS = 5
+COLUMNS: tuple[str, ...] = ("formula", "property", "value", "unit", "source")
+
+UNITS: dict[str, tuple[str, dict[str, float], tuple[float, float]]] = {
+    "lattice_a": ("angstrom", {"angstrom": 1.0, "Å": 1.0, "A": 1.0, "nm": 10.0, "pm": 0.01},
+                  (1.0, 20.0)),
+    "band_gap": ("eV", {"eV": 1.0, "meV": 0.001}, (-1.0, 15.0)),
+    "eps_inf": ("", {"": 1.0, "1": 1.0, "-": 1.0, "dimensionless": 1.0}, (1.0, 100.0)),
+}
+"""Property -> (canonical unit, accepted unit -> factor to it, plausible range); units are
+matched ignoring case."""
+
+TEMPLATE = (
+    "formula,property,value,unit,source\n"
+    "# One measured value per row. property: lattice_a (angstrom, nm or pm), band_gap (eV or\n"
+    "# meV), eps_inf (no unit). source: where the value comes from (your lab book, a paper).\n"
+    "# Lines starting with # are skipped. Example rows (remove the # to use them):\n"
+    "# GaAs,band_gap,1.422,eV,our PL at 300 K (lab book 12 p. 40)\n"
+    "# In0.53Ga0.47As,lattice_a,5.8687,angstrom,XRD run 2024-03\n"
+)
+"""The template the measurements page offers for download."""
+
+
+class ImportRefused(QueryError):
+    """A file that cannot be imported; the message names the line and column (nothing stored)."""
+
+
+class BatchNotFound(QueryError):
+    """No imported values under that batch id (HTTP 404)."""
+
+    status_code = 404
+
+
+class ImportTooLarge(ImportRefused):
+    """A file over the size limit (HTTP 413)."""
+
+    status_code = 413
+
+
+def check_size(size: int) -> None:
+    """Refuse a file over `MAX_BYTES` before reading it."""
+    if size > MAX_BYTES:
+        raise ImportTooLarge(f"the file is {size / 1e6:.1f} MB; the limit is "
+                             f"{MAX_BYTES / 1e6:g} MB ({MAX_ROWS} rows): nothing was imported")
+
+
+def _decode(data: bytes) -> str:
+    check_size(len(data))
+    if not data.strip():
+        raise ImportRefused("the file is empty; expected the header "
+                            f"{','.join(COLUMNS)} and one row per value")
+    try:
+        return data.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        raise ImportRefused(f"the file is not UTF-8 text (byte {exc.start}); save it as "
+                            "UTF-8 CSV: nothing was imported") from exc
+
+
+def _rows(text: str) -> Iterator[tuple[int, list[str]]]:
+    reader = csv.reader(io.StringIO(text, newline=""))
+    try:
+        for cells in reader:
+            if not cells or not "".join(cells).strip() or cells[0].lstrip().startswith("#"):
+                continue
+            yield reader.line_num, cells
+    except csv.Error as exc:
+        raise ImportRefused(f"line {reader.line_num}: not readable as CSV ({exc}): nothing "
+                            "was imported") from exc
+
+
+def _value(raw: str, prop: str, unit_text: str) -> tuple[float, str]:
+    """The value in its canonical unit; ValueError(column, message) for a bad cell."""
+    canonical, factors, (low, high) = UNITS[prop]
+    unit = unit_text.strip().lower()
+    lowered = {u.lower(): f for u, f in factors.items()}
+    if unit not in lowered:
+        shown = ", ".join(u or "(empty)" for u in factors)
+        raise ValueError("unit", f"unit {unit_text.strip()[:20]!r} is not accepted for {prop}; "
+                         f"accepted: {shown}")
+    try:
+        number = float(raw.strip())
+    except ValueError:
+        number = math.nan
+    if not math.isfinite(number):
+        raise ValueError("value", f"{raw.strip()[:30]!r} is not a number")
+    value = number * lowered[unit]
+    if not low <= value <= high:
+        raise ValueError("value", f"{value:g} {canonical} is outside the plausible range "
+                         f"{low:g} to {high:g} {canonical} for {prop}")
+    return value, canonical
+
+
+def _formula(raw: str) -> str:
+    from screening.alloy_report import normalise_material
+
+    try:
+        return normalise_material(raw.strip())
+    except ValueError as exc:  # BondgapInputError and its kind
+        raise ValueError("formula", f"{raw.strip()[:40]!r} is not a compound or alloy the "
+                         f"engine knows: {exc}") from exc
+
+
+def parse_measurements(data: bytes) -> list[dict[str, Any]]:
+    """Check a whole file; return its rows ready to store.
+
+    Raises:
+        ImportRefused: Naming up to five bad cells by line and column.
+        ImportTooLarge: Over `MAX_BYTES`.
+    """
+    rows = _rows(_decode(data))
+    first = next(rows, None)
+    if first is None:
+        raise ImportRefused(f"no header row; expected {','.join(COLUMNS)}")
+    header_line, header = first
+    names = [h.strip().lower() for h in header]
+    missing = [c for c in COLUMNS if c not in names]
+    if missing:
+        raise ImportRefused(f"line {header_line} (header): missing column(s) "
+                            f"{', '.join(missing)}; expected {','.join(COLUMNS)}: nothing was "
+                            "imported")
+    where = {c: names.index(c) for c in COLUMNS}
+    records = list(rows)
+    if len(records) > MAX_ROWS:
+        raise ImportRefused(f"the file has {len(records)} value rows, more than {MAX_ROWS} "
+                            f"(line {records[MAX_ROWS][0]} is the first too many): split it; "
+                            "nothing was imported")
+    errors: list[str] = []
+    found: list[dict[str, Any]] = []
+    seen: dict[tuple[str, str], int] = {}
+    for line, cells in records:
+        cell = {c: cells[i] if i < len(cells) else "" for c, i in where.items()}
+        try:
+            prop = cell["property"].strip()
+            if prop not in UNITS:
+                raise ValueError("property", f"unknown property {prop[:30]!r}; accepted: "
+                                 f"{', '.join(UNITS)}")
+            value, unit = _value(cell["value"], prop, cell["unit"])
+            formula = _formula(cell["formula"])
+            source = cell["source"].strip()
+            if not source or len(source) > MAX_SOURCE or any(ord(ch) < 32 for ch in source):
+                raise ValueError("source", f"give a source of 1 to {MAX_SOURCE} characters "
+                                 "on one line (where the value comes from)")
+            if (formula, prop) in seen:
+                raise ValueError("property", f"{formula} {prop} is given twice (first on line "
+                                 f"{seen[formula, prop]})")
+        except ValueError as exc:
+            column, message = exc.args
+            errors.append(f"line {line}, column {column}: {message}")
+            if len(errors) >= MAX_ERRORS:
+                break
+            continue
+        seen[formula, prop] = line
+        found.append({"formula": formula, "property": prop, "value": value, "unit": unit,
+                      "source": source})
+    if errors:
+        raise ImportRefused("; ".join(errors) + ": nothing was imported")
+    if not found:
+        raise ImportRefused("the file has a header but no value rows: nothing was imported")
+    return found
+
+
+def import_measurements(session: Session, data: bytes) -> dict[str, Any]:
+    """Check and store a file of measured values in one transaction.
+
+    Returns:
+        {"batch": id, "imported": n, "replaced": m}.
+
+    Raises:
+        ImportRefused, ImportTooLarge: Nothing is stored.
+    """
+    rows = parse_measurements(data)
+    batch = uuid.uuid4().hex[:12]
+    keys = [(r["formula"], r["property"]) for r in rows]
+    key = tuple_(UserMeasurement.formula, UserMeasurement.property)
+    with writing(session):
+        replaced = 0
+        for start in range(0, len(keys), 400):  # bound parameters per statement
+            done = session.execute(delete(UserMeasurement).where(key.in_(keys[start:start + 400])))
+            replaced += done.rowcount or 0
+        now = utc_now()
+        session.add_all(UserMeasurement(**r, batch=batch, imported_at=now) for r in rows)
+    return {"batch": batch, "imported": len(rows), "replaced": replaced}
+
+
+def measurement_rows(session: Session) -> list[dict[str, Any]]:
+    """Every imported value, by formula and property."""
+    stmt = select(UserMeasurement).order_by(UserMeasurement.formula, UserMeasurement.property)
+    return [{"formula": m.formula, "property": m.property, "value": m.value, "unit": m.unit,
+             "source": m.source, "batch": m.batch,
+             "imported_at": m.imported_at.isoformat() + "Z"} for m in session.scalars(stmt)]
+
+
+def delete_batch(session: Session, batch: str) -> int:
+    """Delete the values of one import; return how many. Raises BatchNotFound if none."""
+    with writing(session):
+        done = session.execute(delete(UserMeasurement).where(UserMeasurement.batch == batch))
+        count = done.rowcount or 0
+        if not count:
+            raise BatchNotFound(f"no imported values in batch {batch[:40]!r}")
+    return count

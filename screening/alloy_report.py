@@ -1,0 +1,220 @@
+"""The alloy report: one JSON-ready dict per alloy composition, shaped like the compound report.
+
+:func:`alloy_report` gives an alloy the top-level keys of :func:`screening.report.compound_report`
+(formula, family, cation/anion, structure, lattice constant, bond lengths, Phillips and
+Harrison blocks in the virtual-crystal approximation, band gap, coordination, hazards) plus
+``alloy: true``, the site fractions, the end points with their weights, the bowing sources and
+flags (docs/report-schema.md). :func:`material_report` dispatches on the formula: the compound
+report for a binary, the alloy report for an alloy (``screening.layer`` puts either on a
+substrate). Reports are computed on request (a few ms); nothing is stored.
+"""
+
+from __future__ import annotations
+
+import math
+from typing import Any
+
+from screening import MODEL_VERSION, epitaxy
+from screening.alloys import AlloyProperties, alloy_properties, parse_material
+from screening.alloys.endpoints import endpoint_gaps
+from screening.alloys.formula import Alloy, parse_alloy
+from screening.alloys.vca import site_weights, vca_bonds
+from screening.constants import HC_EV_NM
+from screening.coordination import BORDERLINE_HALF_WIDTH, predicted_coordination
+from screening.evaluate import catalogue_table
+from screening.gaps import gaps_at
+from screening.hazards import CAUTION, hazard_notes
+from screening.phillips import PhillipsResult
+from screening.reference import measured_compounds
+from screening.report import check_temperature, compound_report
+
+GAP_ROUTE = ("lowest valley of the end-point gaps interpolated with published bowing "
+             "parameters (Glisson et al., J. Electron. Mater. 7, 1 (1978) for quaternaries, "
+             "in the form of Vurgaftman, Meyer & Ram-Mohan, J. Appl. Phys. 89, 5815 (2001))")
+VCA_ROUTE = "virtual-crystal approximation: end-point inputs averaged with weights p_i q_j"
+KIND_OF_VALLEY = {"Gamma": "direct", "X": "indirect", "L": "indirect"}
+COORDINATION_OF_STRUCTURE = {"zincblende": "fourfold", "wurtzite": "fourfold",
+                             "rocksalt": "sixfold"}
+
+
+def _float(value: Any) -> float | None:
+    number = float(value)
+    return number if math.isfinite(number) else None
+
+
+def _phillips(result: PhillipsResult) -> dict[str, float | None] | None:
+    if not math.isfinite(float(result.ionicity[0])):
+        return None
+    return {"homopolar_gap_eV": _float(result.homopolar_gap_eV[0]),
+            "heteropolar_gap_eV": _float(result.heteropolar_gap_eV[0]),
+            "average_gap_eV": _float(result.average_gap_eV[0]),
+            "ionicity": _float(result.ionicity[0])}
+
+
+def _site_text(elements: tuple[str, ...], fractions: tuple[float, ...]) -> str:
+    """A site as written in the formula: "In0.53Ga0.47", or "As" for one element."""
+    present = [(e, f) for e, f in zip(elements, fractions, strict=True) if f > 0.0]
+    if len(present) == 1:
+        return present[0][0]
+    return "".join(e + f"{f:.4f}".rstrip("0").rstrip(".") for e, f in present)
+
+
+def _band_gap(alloy: Alloy, props: AlloyProperties) -> dict[str, Any]:
+    gap = _float(props.band_gap_eV[0])
+    valley = str(props.valley[0])
+    at = gaps_at(props.temperature_K)
+    position = {c.formula: i for i, c in enumerate(catalogue_table().compounds)}
+    assumed = [b for b in alloy.system.binaries if at.temperature_law_assumed[position[b]]]
+    return {
+        "value_eV": gap,
+        "value_source": "interpolated",
+        "estimate_eV": gap,
+        "uncertainty_eV": _float(props.band_gap_uncertainty_eV[0]),
+        "cross_validated_eV": None,
+        "measured_eV": None,
+        "measured_300K_eV": None,
+        "kind": KIND_OF_VALLEY.get(valley),
+        "kind_source": f"valley of the interpolated gap ({valley or 'unknown'})",
+        "valley": valley or None,
+        "temperature_K": props.temperature_K,
+        "temperature_law": "end points' gaps at the temperature; bowing parameters as published",
+        "temperature_law_assumed": bool(assumed),
+        "wavelength_nm": _float(HC_EV_NM / gap) if gap and gap > 0 else None,
+        "default_bowing": bool(props.default_bowing[0]),
+        "route": GAP_ROUTE,
+        "sources": list(props.gap_sources),
+    }
+
+
+def _end_points(alloy: Alloy, temperature_K: float) -> list[dict[str, Any]]:
+    weights = site_weights(alloy.system, [alloy.fractions])[0]
+    gaps, uncertainties = endpoint_gaps(alloy.system.binaries, temperature_K)
+    data = measured_compounds()
+    rows = []
+    for b, binary in enumerate(alloy.system.binaries):
+        lattice = data[binary].get("lattice_a")
+        rows.append({"formula": binary, "weight": float(weights[b]),
+                     "lattice_constant_angstrom": float(lattice.value) if lattice else None,
+                     "band_gap_eV": _float(gaps[b]),
+                     "band_gap_uncertainty_eV": _float(uncertainties[b])})
+    return rows
+
+
+def _coordination(spectroscopic: PhillipsResult, predictive: PhillipsResult,
+                  structure: str | None) -> dict[str, Any]:
+    route = "spectroscopic" if math.isfinite(float(spectroscopic.ionicity[0])) else "predictive"
+    result = spectroscopic if route == "spectroscopic" else predictive
+    predicted = predicted_coordination(result.ionicity, BORDERLINE_HALF_WIDTH[route])[0]
+    return {"predicted": predicted, "route": route,
+            "observed": COORDINATION_OF_STRUCTURE.get(structure or "")}
+
+
+def alloy_report(text: str, temperature_K: float = 300.0) -> dict[str, Any]:
+    """The report of one alloy composition (docs/report-schema.md, "Alloys").
+
+    Args:
+        text: An alloy in the usual notation, e.g. "In0.53Ga0.47As".
+        temperature_K: Temperature of the band-gap block, 0 to 2000 K.
+
+    Raises:
+        BondgapInputError: A subclass naming what is wrong with the formula or temperature
+            (fractions off their site sum or outside [0, 1], mixed sublattices or structures,
+            end points without measured data).
+    """
+    temperature = check_temperature(temperature_K)
+    alloy = parse_alloy(text)
+    system = alloy.system
+    props = alloy_properties(system, [alloy.fractions], temperature)
+    vca = vca_bonds(system, [alloy.fractions])
+    bonds = vca.bonds
+    n_cat = len(system.cations)
+    present = [e for e, f in zip(system.elements, alloy.fractions, strict=True) if f > 0.0]
+    notes = hazard_notes(present)
+    flags = []
+    if props.default_bowing[0]:
+        flags.append("a default bowing (no published value for an edge) entered the band gap")
+    if props.poisson_assumed[0]:
+        flags.append(f"Poisson ratio assumed ({epitaxy.DEFAULT_POISSON_RATIO:.3f}): elastic "
+                     "constants missing for an end point")
+    if _phillips(vca.spectroscopic) is None:
+        flags.append("no spectroscopic ionicity: an end point has no measured eps_inf")
+    return {
+        "formula": alloy.formula,
+        "alloy": True,
+        "system": system.name,
+        "form": system.form,
+        "family": system.family,
+        "cation": _site_text(system.cations, alloy.fractions[:n_cat]),
+        "anion": _site_text(system.anions, alloy.fractions[n_cat:]),
+        "fractions": {e: f for e, f in zip(system.elements, alloy.fractions, strict=True)},
+        "sites": {"cation": dict(zip(system.cations, alloy.fractions[:n_cat], strict=True)),
+                  "anion": dict(zip(system.anions, alloy.fractions[n_cat:], strict=True))},
+        "model_version": MODEL_VERSION,
+        "structure": {"observed": system.structure,
+                      "source": "ambient structure shared by the end points (seed data)"},
+        "lattice_constant_angstrom": _float(props.lattice_constant_angstrom[0]),
+        "lattice_c_angstrom": _float(props.lattice_c_angstrom[0]),
+        "lattice_route": "Vegard's law over the end points' measured lattice constants",
+        "bond_length_angstrom": _float(vca.bond_length_angstrom[0]),
+        "bond_length_estimated_angstrom": None,
+        "bond_length_used_angstrom": _float(vca.bond_length_angstrom[0]),
+        "measured": {key: None for key in
+                     ("band_gap_eV", "gap_kind", "eps_inf", "lattice_a", "lattice_c")},
+        "end_points": _end_points(alloy, temperature),
+        "phillips": {"spectroscopic": _phillips(vca.spectroscopic),
+                     "predictive": _phillips(vca.predictive), "route": VCA_ROUTE},
+        "harrison": {
+            "covalent_energy_eV": _float(bonds.covalent_energy_eV[0]),
+            "polar_energy_eV": _float(bonds.polar_energy_eV[0]),
+            "metallic_energy_eV": _float(bonds.metallic_energy_eV[0]),
+            "metallic_energy_cation_eV": _float(bonds.metallic_energy_cation_eV[0]),
+            "metallic_energy_anion_eV": _float(bonds.metallic_energy_anion_eV[0]),
+            "polarity": _float(bonds.polarity[0]),
+            "covalency": _float(bonds.covalency[0]),
+            "hybrid_energy_cation_eV": _float(bonds.hybrid_energy_cation_eV[0]),
+            "hybrid_energy_anion_eV": _float(bonds.hybrid_energy_anion_eV[0]),
+            "bonding_eV": _float(bonds.bonding_eV[0]),
+            "antibonding_eV": _float(bonds.antibonding_eV[0]),
+            "route": VCA_ROUTE,
+        },
+        "band_gap": _band_gap(alloy, props),
+        "tight_binding": None,
+        "elastic": {"poisson_ratio_001": _float(props.poisson_ratio[0]),
+                    "poisson_assumed": bool(props.poisson_assumed[0]),
+                    "route": "nu = C12 / (C11 + C12) of Vegard-averaged C11, C12"},
+        "coordination": _coordination(vca.spectroscopic, vca.predictive, system.structure),
+        "hazards": {
+            "elements": [n.element for n in notes if n.toxic],
+            "notes": [{"element": n.element, "toxic": n.toxic, "note": n.note,
+                       "precursors": n.precursors} for n in notes],
+            "caution": CAUTION if notes else None,
+        },
+        "flags": flags,
+    }
+
+
+def normalise_material(text: str) -> str:
+    """The normalised formula of a binary or alloy; elements at fraction 0 are dropped.
+
+    "Ga0.47In0.53As" gives "In0.53Ga0.47As", "In0Ga1As" gives "GaAs", "AsGa" gives "GaAs".
+
+    Raises:
+        BondgapInputError: A subclass naming what is wrong with the formula.
+    """
+    material = parse_material(text)
+    if isinstance(material, Alloy):
+        material = parse_material(material.formula)
+    return material.formula
+
+
+def material_report(text: str, temperature_K: float = 300.0) -> dict[str, Any]:
+    """The compound report of a binary, or the alloy report of an alloy, from its formula.
+
+    Raises:
+        BondgapInputError: A subclass naming what is wrong with the formula or temperature.
+    """
+    formula = normalise_material(text)
+    if isinstance(parse_material(formula), Alloy):
+        return alloy_report(formula, temperature_K)
+    return compound_report(formula, temperature_K)
+

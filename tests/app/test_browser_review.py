@@ -1,0 +1,72 @@
+import csv
+import io
+import re
+import uuid
+
+import pytest
+from playwright.sync_api import Page, expect
+
+pytestmark = pytest.mark.browser
+
+PICKED = ["GaAs", "InP", "ZnSe"]
+
+
+def test_review_flow_filter_shortlist_note_compare_export(page: Page, live_server: str) -> None:
+    errors: list[str] = []
+    page.on("pageerror", lambda exc: errors.append(str(exc)))
+    name = f"Review {uuid.uuid4().hex[:6]}"
+
+    # Filter the table: no cadmium, nothing RoHS-restricted.
+    page.goto(live_server + "compounds")
+    page.fill("#filter-exclude", "Cd")
+    page.check("#filter-no-rohs")  # applied on change
+    expect(page).to_have_url(re.compile(r"no_rohs=true"))
+    assert "exclude=Cd" in page.url
+    formulas = page.locator("#compound-table tbody tr[data-formula]").evaluate_all(
+        "rows => rows.map(r => r.dataset.formula)")
+    assert formulas and not [f for f in formulas if re.search(r"Cd|Hg|Pb", f)]
+
+    # Tick three candidates and add them to a new shortlist.
+    for formula in PICKED:
+        page.check(f"#compound-table tr[data-formula='{formula}'] input[type=checkbox]")
+    page.fill("#add-to-shortlist-new", name)
+    page.click("#add-to-shortlist button[type=submit]")
+    expect(page.locator("#shortlist-name")).to_have_text(name)
+    rows = page.locator("#candidates tbody tr[data-formula]")
+    expect(rows).to_have_count(3)
+
+    # Write a note on one candidate; it is saved at once and shown after the reload.
+    note = "=keep: lattice-matched to InP"
+    row = page.locator("#candidates tr[data-formula='InP']")
+    row.locator("textarea").fill(note)
+    row.locator("button", has_text="Save").click()
+    expect(page.locator("#candidates tr[data-formula='InP'] textarea")).to_have_value(note)
+
+    # Open the comparison: the three side by side, with the chart.
+    page.click("#compare-button")
+    expect(page).to_have_url(re.compile(r"/compare"))
+    heads = page.locator("#compare-table thead th[data-formula]").evaluate_all(
+        "cells => cells.map(c => c.dataset.formula)")
+    assert heads == PICKED
+    expect(page.locator("#compare-table tr[data-key='band_gap_eV'] th")).to_contain_text("eV")
+    page.wait_for_selector("#chart-compare.js-plotly-plot .main-svg")
+    labels = page.locator("#chart-compare .scatterlayer .textpoint").evaluate_all(
+        "nodes => nodes.map(n => n.textContent)")
+    assert sorted(labels) == sorted(PICKED)
+    expect(page.locator("#chart-compare .shapelayer path")).to_have_count(0)  # no substrate set
+    expect(page.locator("#hazard-box")).to_contain_text("safety data sheets")
+
+    # Export the CSV and read it back.
+    page.go_back()
+    with page.expect_download() as info:
+        page.click("#export-csv")
+    text = info.value.path().read_text(encoding="utf-8-sig")
+    lines = list(csv.reader(io.StringIO(text)))
+    header = {r[0]: r[1] for r in lines if r[0].startswith("# ") and len(r) == 2}
+    assert header["# shortlist"] == name
+    table = [r for r in lines if not r[0].startswith("#")]
+    exported = [dict(zip(table[0], r, strict=True)) for r in table[1:]]
+    assert [r["formula"] for r in exported] == PICKED
+    assert exported[1]["note"] == "'" + note  # neutralised for spreadsheets
+    assert float(exported[0]["band_gap_eV"]) == pytest.approx(1.424)  # GaAs, 300 K (seed data)
+    assert errors == []
