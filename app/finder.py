@@ -29,6 +29,7 @@ from screening.alloys.query import DEFAULT_FAMILIES
 from screening.constants import HC_EV_NM
 from screening.elements import atomic_number
 from screening.epitaxy import GEOMETRIES, SubstrateSpec
+from screening.hazards import ROHS_RESTRICTED
 
 DEFAULT_TOLERANCE_EV = 0.01
 DEFAULT_LIMIT = 500
@@ -94,6 +95,7 @@ class MatchQuery:
     thickness: float | None = None
     geometry: str = "single-uncapped"
     exclude: tuple[str, ...] = ()
+    no_rohs: bool = False
     sort: str = "rank"
     desc: bool = False
     limit: int = DEFAULT_LIMIT
@@ -102,7 +104,8 @@ class MatchQuery:
     def parse(cls, *, system: str | None = None, on: str | None = None, gap: Any = None,
               wavelength: Any = None, tolerance: Any = None, temperature: Any = None,
               max_mismatch: Any = None, thickness: Any = None, geometry: str | None = None,
-              exclude: Any = None, sort: str | None = None, desc: bool = False,
+              exclude: Any = None, no_rohs: bool = False, sort: str | None = None,
+              desc: bool = False,
               limit: Any = None) -> MatchQuery:
         """Check raw values and return the query.
 
@@ -139,7 +142,8 @@ class MatchQuery:
         return cls(system=_system(system), on=(on or "").strip(), gap=gap_eV, wavelength=wl,
                    tolerance=tol, temperature=parse_temperature(temperature),
                    max_mismatch=mismatch, thickness=h, geometry=shape,
-                   exclude=_elements(exclude), sort=key, desc=bool(desc),
+                   exclude=_elements(exclude), no_rohs=bool(no_rohs), sort=key,
+                   desc=bool(desc),
                    limit=DEFAULT_LIMIT if count is None else int(count))
 
     @property
@@ -226,7 +230,8 @@ def run_match(session: Session | None, query: MatchQuery) -> MatchRun:
     ranked = find_compositions(FinderQuery(
         substrate=substrate, system=query.system, gap=window,
         temperature_K=query.temperature_K, max_mismatch=query.max_mismatch,
-        layer_thickness_nm=query.thickness, exclude_elements=query.exclude,
+        layer_thickness_nm=query.thickness,
+        exclude_elements=query.exclude + (tuple(ROHS_RESTRICTED) if query.no_rohs else ()),
         geometry=query.geometry, families=DEFAULT_FAMILIES))
     ordered = reorder(ranked, _order(ranked, query.sort, query.desc))
     return MatchRun(query, substrate, window, ordered, ranked)

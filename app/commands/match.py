@@ -46,6 +46,8 @@ def register(sub: argparse._SubParsersAction) -> None:
                         "(default single-uncapped)")
     parser.add_argument("--exclude", metavar="ELEMENTS", action="append",
                         help="elements no match may contain, e.g. Cd,Hg (repeatable)")
+    parser.add_argument("--no-rohs", action="store_true",
+                        help="exclude compositions with a RoHS-restricted element")
     parser.add_argument("--sort", default="rank", help=f"order: {', '.join(SORT_KEYS)}")
     parser.add_argument("--desc", action="store_true", help="descending order")
     parser.add_argument("--limit", metavar="N", default=str(DEFAULT_LIMIT),
@@ -94,7 +96,8 @@ def run(args: argparse.Namespace) -> int:
         system=args.system, on=args.on, gap=args.gap, wavelength=args.wavelength,
         tolerance=args.tolerance, temperature=args.temperature,
         max_mismatch=args.max_mismatch, thickness=args.thickness, geometry=args.geometry,
-        exclude=args.exclude, sort=args.sort, desc=args.desc, limit=args.limit,
+        exclude=args.exclude, no_rohs=args.no_rohs, sort=args.sort, desc=args.desc,
+        limit=args.limit,
     )
     sessions = open_sessions(Settings.from_args(args))
     with sessions() as session:

@@ -10,6 +10,7 @@ from fastapi.responses import Response
 from sqlalchemy.orm import Session
 
 from app.alloy_views import alloy_context
+from app.page_extras import report_extras
 from app.substrates import substrate_rows
 from screening.epitaxy import GEOMETRIES
 
@@ -22,5 +23,6 @@ def alloy_page(request: Request, session: Session, report: dict[str, Any], *,
                                 ("on", on), ("geometry", geometry if on else None)) if v}
     json_url = "/api/compounds/" + quote(report["formula"])
     context.update(report=report, substrates=substrate_rows(session), geometries=GEOMETRIES,
-                   json_url=json_url + ("?" + urlencode(params) if params else ""))
+                   json_url=json_url + ("?" + urlencode(params) if params else ""),
+                   **report_extras(session, report))
     return request.app.state.templates.TemplateResponse(request, "alloy.html", context)

@@ -12,12 +12,15 @@ from app.deps import SessionDep
 from app.finder import DEFAULT_LIMIT, DEFAULT_TOLERANCE_EV, SORT_KEYS, MatchQuery, run_match
 from app.finder_chart import finder_chart
 from app.finder_payload import match_payload
+from app.shortlists import all_shortlists
 from app.substrates import substrate_rows
+from app.views import caution_line
 from screening.alloy_report import normalise_material
 from screening.alloys import design_space_systems
 from screening.alloys.query import DEFAULT_FAMILIES
 from screening.epitaxy import GEOMETRIES, MISMATCH_CONVENTION
 from screening.errors import BondgapInputError
+from screening.hazards import toxic_elements
 
 router = APIRouter()
 
@@ -56,6 +59,9 @@ def match_query(
         description=f"Matthews-Blakeslee geometry: {', '.join(GEOMETRIES)}")] = None,
     exclude: Annotated[list[str] | None, Query(
         description="Elements no match may contain (repeat, or a comma list)")] = None,
+    no_rohs: Annotated[bool, Query(
+        description="Exclude compositions with a RoHS-restricted element (Cd, Hg, Pb, Cr)")
+    ] = False,
     sort: Annotated[str | None, Query(
         description=f"Order of the matches: {', '.join(SORT_KEYS)} (default rank)")] = None,
     desc: Annotated[bool, Query(description="Descending order")] = False,
@@ -66,7 +72,8 @@ def match_query(
     return MatchQuery.parse(system=system, on=on, gap=gap, wavelength=wavelength,
                             tolerance=tolerance, temperature=temperature,
                             max_mismatch=max_mismatch, thickness=thickness, geometry=geometry,
-                            exclude=exclude, sort=sort, desc=desc, limit=limit)
+                            exclude=exclude, no_rohs=no_rohs, sort=sort, desc=desc,
+                            limit=limit)
 
 
 MatchQueryDep = Annotated[MatchQuery, Depends(match_query)]
@@ -91,7 +98,8 @@ def _query_of(request: Request) -> MatchQuery:
     params = request.query_params
     return match_query(**{k: params.get(k) for k in PARAMS if k != "desc"},
                        desc=params.get("desc", "").lower() in ("true", "1", "on", "yes"),
-                       exclude=params.getlist("exclude") or None)  # as the API reads it
+                       exclude=params.getlist("exclude") or None,  # as the API reads it
+                       no_rohs=params.get("no_rohs", "").lower() in ("true", "1", "on", "yes"))
 
 
 def _headers(query: MatchQuery) -> list[dict[str, Any]]:
@@ -112,6 +120,7 @@ def _headers(query: MatchQuery) -> list[dict[str, Any]]:
 def _form(request: Request) -> dict[str, Any]:
     params = request.query_params
     form = {k: params.get(k, "") for k in PARAMS}
+    form["no_rohs"] = params.get("no_rohs", "").lower() in ("true", "1", "on", "yes")
     form["exclude"] = [e.strip() for v in params.getlist("exclude") for e in v.split(",")
                        if e.strip()]
     return form
@@ -133,7 +142,7 @@ def finder_page(request: Request, session: SessionDep) -> Response:
         "systems": [s.name for s in design_space_systems(DEFAULT_FAMILIES)],
         "geometries": GEOMETRIES, "exclude_choices": EXCLUDE_CHOICES,
         "default_tolerance": DEFAULT_TOLERANCE_EV, "convention": MISMATCH_CONVENTION,
-        "payload": None, "error": None,
+        "payload": None, "error": None, "shortlists": all_shortlists(session),
     }
     status = 200
     if request.query_params:
@@ -151,7 +160,9 @@ def finder_page(request: Request, session: SessionDep) -> Response:
                 payload=payload, query=query, headers=_headers(query),
                 chart=finder_chart(run, payload["matches"]),
                 detail_query="?" + urlencode(on),
-                json_url="/api/match?" + urlencode(query.as_params(), doseq=True))
+                json_url="/api/match?" + urlencode(query.as_params(), doseq=True),
+                caution=caution_line(toxic_elements(
+                    {e for m in payload["matches"] for e, f in m["fractions"].items() if f})))
     return request.app.state.templates.TemplateResponse(
         request, "finder.html", context, status_code=status)
 

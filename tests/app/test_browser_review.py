@@ -42,7 +42,12 @@ def test_review_flow_filter_shortlist_note_compare_export(page: Page, live_serve
     row.locator("button", has_text="Save").click()
     expect(page.locator("#candidates tr[data-formula='InP'] textarea")).to_have_value(note)
 
-    # Open the comparison: the three side by side, with the chart.
+    # Save the conditions they are chosen under: on GaAs.
+    page.select_option("#cond-substrate", "GaAs")
+    page.click("#edit-shortlist button[type=submit]")
+    expect(page.locator("#shortlist-conditions")).to_contain_text("substrate GaAs")
+
+    # Open the comparison: the three side by side, with the chart and the substrate line.
     page.click("#compare-button")
     expect(page).to_have_url(re.compile(r"/compare"))
     heads = page.locator("#compare-table thead th[data-formula]").evaluate_all(
@@ -53,7 +58,13 @@ def test_review_flow_filter_shortlist_note_compare_export(page: Page, live_serve
     labels = page.locator("#chart-compare .scatterlayer .textpoint").evaluate_all(
         "nodes => nodes.map(n => n.textContent)")
     assert sorted(labels) == sorted(PICKED)
-    expect(page.locator("#chart-compare .shapelayer path")).to_have_count(0)  # no substrate set
+    expect(page.locator("#chart-compare .shapelayer path")).to_have_count(1)
+    notes = page.locator("#chart-compare .annotation-text").evaluate_all(
+        "nodes => nodes.map(n => n.textContent)")
+    assert len(notes) == 1 and notes[0].startswith("GaAs 5.653")  # a = 5.65325 Å
+    best = page.locator("#compare-table tr[data-key='mismatch'] td.best")
+    expect(best).to_have_count(1)
+    expect(best).to_contain_text("+0.000")  # GaAs on GaAs
     expect(page.locator("#hazard-box")).to_contain_text("safety data sheets")
 
     # Export the CSV and read it back.
@@ -63,7 +74,7 @@ def test_review_flow_filter_shortlist_note_compare_export(page: Page, live_serve
     text = info.value.path().read_text(encoding="utf-8-sig")
     lines = list(csv.reader(io.StringIO(text)))
     header = {r[0]: r[1] for r in lines if r[0].startswith("# ") and len(r) == 2}
-    assert header["# shortlist"] == name
+    assert header["# shortlist"] == name and header["# substrate"] == "GaAs"
     table = [r for r in lines if not r[0].startswith("#")]
     exported = [dict(zip(table[0], r, strict=True)) for r in table[1:]]
     assert [r["formula"] for r in exported] == PICKED

@@ -135,3 +135,20 @@ def test_gap_and_wavelength_together_are_refused(client) -> None:
     assert response.status_code == 400
     assert "not both" in response.json()["detail"]
     assert client.get("/api/match").json()["detail"].startswith("give a substrate")
+
+
+def test_finder_excludes_rohs_restricted_elements(tmp_path) -> None:
+    # RoHS Annex II (Directive 2011/65/EU as amended by (EU) 2015/863) restricts Cd, Hg, Pb
+    # and hexavalent Cr: with --no-rohs no CdZnTe-type composition may come back.
+    import json
+    import subprocess
+    import sys
+
+    db = str(tmp_path / "rohs.db")
+    base = [sys.executable, "-m", "app", "match", "all", "--on", "CdTe", "--json", "--db", db,
+            "--limit", "2000"]
+    plain = json.loads(subprocess.run(base, capture_output=True, text=True, check=True).stdout)
+    strict = json.loads(subprocess.run(base + ["--no-rohs"], capture_output=True, text=True,
+                                       check=True).stdout)
+    assert any("Cd" in m["fractions"] or "Hg" in m["fractions"] for m in plain["matches"])
+    assert all(not ({"Cd", "Hg", "Pb", "Cr"} & set(m["fractions"])) for m in strict["matches"])

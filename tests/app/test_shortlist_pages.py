@@ -128,3 +128,25 @@ def test_compound_page_flags_rohs_and_offers_the_shortlist(client) -> None:
     assert form["action"] == "/shortlists/add"
     assert form.select_one("input[name='formula']")["value"] == "CdTe"
     assert soup_of(client.get("/compounds/GaAs")).select_one("#rohs-box") is None
+
+
+def test_alloy_page_and_finder_offer_the_shortlist(client) -> None:
+    soup = soup_of(client.get("/compounds/In0.53Ga0.47As"))
+    form = soup.select_one("form#add-compound")
+    assert form.select_one("input[name='formula']")["value"] == "In0.53Ga0.47As"
+    finder = soup_of(client.get("/alloys", params={"system": "InGaAs", "on": "InP",
+                                                   "gap": "0.75"}))
+    boxes = finder.select("#match-table input[type='checkbox'][form='add-to-shortlist']")
+    assert boxes and finder.select_one("form#add-to-shortlist")
+    picked = [b["value"] for b in boxes[:2]]
+    done = client.post("/shortlists/add", data={"formula": picked, "new_name": "Finder picks"},
+                       follow_redirects=False)
+    listed = soup_of(client.get(done.headers["location"]))
+    assert [r["data-formula"] for r in listed.select("#candidates tbody tr[data-formula]")] \
+        == picked
+
+
+def test_finder_page_cautions_for_hazardous_matches(client) -> None:
+    soup = soup_of(client.get("/alloys", params={"system": "InGaAs", "on": "InP", "gap": "0.75"}))
+    caution = soup.select_one("footer .caution").get_text()
+    assert "As" in caution and "safety data sheets" in caution
