@@ -8,11 +8,22 @@ Public API:
     `solve_atom` runs the SCF now; `atom_levels` and `term_values` read the committed table.
 """
 
+from typing import Any
+
 from screening.atoms.configurations import CONFIGURATIONS, MAX_Z, valence_s_p
 from screening.atoms.levels import AtomLevels, Level
-from screening.atoms.scf import ScfSettings
-from screening.atoms.solver import DEFAULT_SETTINGS, solve_atom
 from screening.atoms.table import atom_levels, term_values
+
+_SOLVER_NAMES = {"solve_atom": "solver", "DEFAULT_SETTINGS": "solver", "ScfSettings": "scf"}
+
+
+def __getattr__(name: str) -> Any:
+    """Load the solver (and scipy) only when it is used: reading the table needs neither."""
+    if name in _SOLVER_NAMES:
+        import importlib
+
+        return getattr(importlib.import_module(f"screening.atoms.{_SOLVER_NAMES[name]}"), name)
+    raise AttributeError(f"module 'screening.atoms' has no attribute {name!r}")
 
 __all__ = [
     "CONFIGURATIONS",

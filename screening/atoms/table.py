@@ -12,7 +12,6 @@ from collections.abc import Sequence
 from dataclasses import asdict
 from functools import lru_cache
 from importlib import resources
-from multiprocessing import Pool
 from pathlib import Path
 from typing import Any
 
@@ -26,7 +25,6 @@ from screening.atoms.configurations import (
     valence_s_p,
 )
 from screening.atoms.levels import AtomLevels, Level
-from screening.atoms.solver import DEFAULT_SETTINGS, solve_atom
 
 TABLE_FILE: str = "atomic_levels.json"
 """Name of the table in the ``screening.data`` package directory."""
@@ -77,6 +75,10 @@ def compute_table(processes: int = 1) -> tuple[AtomLevels, ...]:
     Returns:
         The 86 atoms in order of Z.
     """
+    from multiprocessing import Pool
+
+    from screening.atoms.solver import solve_atom  # the solver (scipy) only when solving
+
     atomic_numbers = list(range(1, MAX_Z + 1))
     if processes <= 1:
         return tuple(solve_atom(z) for z in atomic_numbers)
@@ -88,6 +90,8 @@ def compute_table(processes: int = 1) -> tuple[AtomLevels, ...]:
 
 def table_document(atoms: Sequence[AtomLevels]) -> str:
     """Serialise the table: a header, then one atom per line."""
+    from screening.atoms.solver import DEFAULT_SETTINGS
+
     header = {
         "description": (
             "Kohn-Sham LDA orbital energies (eV) of the neutral atoms H to Rn: non-relativistic, "
