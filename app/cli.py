@@ -43,6 +43,10 @@ def main(argv: Sequence[str] | None = None) -> int:
     except (BondgapInputError, UsageError) as exc:
         print(f"bondgap: error: {exc}", file=sys.stderr)
         return 2
+    except UnicodeEncodeError as exc:  # an argument with bytes that are not UTF-8
+        print(f"bondgap: error: text that is not valid UTF-8 ({exc.reason}); nothing was "
+              "stored", file=sys.stderr)
+        return 2
     except BrokenPipeError:  # e.g. `bondgap list | head`
         return 0
     return int(code or 0)

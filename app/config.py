@@ -9,7 +9,8 @@ Database path, first match wins:
    `~/.local/share/bondgap/`) on Linux, `~/Library/Application Support/bondgap/` on macOS,
    `%LOCALAPPDATA%/bondgap/` on Windows.
 
-The server binds 127.0.0.1:8000 unless told otherwise.
+The server binds 127.0.0.1:8000 unless told otherwise, and answers only requests whose `Host`
+header names a loopback address, the host it was bound to, or a name given with `--allow-host`.
 """
 
 from __future__ import annotations
@@ -109,6 +110,8 @@ class Settings:
         templates_dir: Jinja2 templates.
         static_dir: CSS and JavaScript served under `/static/`.
         plotly_js: The plotly.js bundle served at `/vendor/plotly.min.js`.
+        allowed_hosts: Host names served besides the loopback names and `host`
+            (`bondgap serve --allow-host NAME`); any other `Host` header is refused.
     """
 
     db_path: Path
@@ -117,14 +120,22 @@ class Settings:
     templates_dir: Path = field(default=TEMPLATES_DIR)
     static_dir: Path = field(default=STATIC_DIR)
     plotly_js: Path = field(default=PLOTLY_JS)
+    allowed_hosts: tuple[str, ...] = ()
+
+    def host_names(self) -> frozenset[str]:
+        """Host names the app answers to: 127.0.0.1, localhost, ::1, `host`, `allowed_hosts`."""
+        from app.guard import allowed_host_names
+
+        return allowed_host_names(self.host, self.allowed_hosts)
 
     @classmethod
     def from_args(cls, args: argparse.Namespace) -> Settings:
-        """Build settings from parsed CLI arguments (`db`, and `host`/`port` where present)."""
+        """Build settings from CLI arguments (`db`; `host`, `port`, `allow_host` where present)."""
         return cls(
             db_path=resolve_db_path(getattr(args, "db", None)),
             host=getattr(args, "host", None) or DEFAULT_HOST,
             port=DEFAULT_PORT if getattr(args, "port", None) is None else args.port,
+            allowed_hosts=tuple(getattr(args, "allow_host", None) or ()),
         )
 
 

@@ -5,7 +5,7 @@ from __future__ import annotations
 from collections.abc import Iterator
 from typing import Annotated
 
-from fastapi import Depends, Query, Request
+from fastapi import Depends, Path, Query, Request
 from sqlalchemy.orm import Session
 
 from app.columns import COLUMNS_BY_KEY
@@ -19,6 +19,7 @@ from app.params import (
     parse_points,
     parse_temperature,
 )
+from app.text_rules import MAX_ID
 
 
 def get_settings(request: Request) -> Settings:
@@ -122,3 +123,5 @@ SessionDep = Annotated[Session, Depends(get_session)]
 TableQueryDep = Annotated[TableQuery, Depends(table_query)]
 TemperatureDep = Annotated[float | None, Depends(temperature_query)]
 PointsDep = Annotated[int, Depends(points_query)]
+ShortlistId = Annotated[int, Path(ge=1, le=MAX_ID, description="Shortlist id")]
+"""A shortlist id in a URL: a whole number that SQLite can store (1 to 2**63 - 1)."""

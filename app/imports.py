@@ -73,6 +73,27 @@ class ImportTooLarge(ImportRefused):
     status_code = 413
 
 
+class ImportUnsupported(ImportRefused):
+    """A file sent as a media type that is not CSV text (HTTP 415)."""
+
+    status_code = 415
+
+
+CSV_TYPES = frozenset({"text/csv", "text/plain", "application/csv", "text/comma-separated-values",
+                       "application/vnd.ms-excel", "application/octet-stream"})
+"""Media types a CSV file is sent as (browsers on Windows label .csv files
+application/vnd.ms-excel; a file of unknown kind comes as application/octet-stream). What
+the file holds is checked as well: UTF-8 text without NUL bytes."""
+
+
+def check_type(content_type: str | None) -> None:
+    """Refuse a file or body sent as anything but CSV text (an empty type passes)."""
+    media = (content_type or "").split(";")[0].strip().lower()
+    if media and media not in CSV_TYPES:
+        raise ImportUnsupported(f"cannot import a file sent as {media[:60]}; send CSV text "
+                                "(Content-Type: text/csv), UTF-8: nothing was imported")
+
+
 def check_size(size: int) -> None:
     """Refuse a file over `MAX_BYTES` before reading it."""
     if size > MAX_BYTES:
@@ -85,6 +106,9 @@ def _decode(data: bytes) -> str:
     if not data.strip():
         raise ImportRefused("the file is empty; expected the header "
                             f"{','.join(COLUMNS)} and one row per value")
+    if b"\x00" in data:
+        raise ImportRefused("the file holds NUL bytes, so it is not CSV text (a spreadsheet "
+                            "workbook?); save it as CSV UTF-8: nothing was imported")
     try:
         return data.decode("utf-8-sig")
     except UnicodeDecodeError as exc:

@@ -1,7 +1,9 @@
 """Build the web app: `create_app(settings)` opens the store and wires pages, API and errors.
 
 Bad input is answered with a 4xx status and a one-line message: `{"detail": "..."}` under
-`/api/`, a short error page elsewhere. No traceback ever reaches the client.
+`/api/`, a short error page elsewhere. No traceback ever reaches the client. Every request
+passes the request guard first (`app.guard`: host allow-list, cross-site refusal, body limit,
+the install's token for changes; `app.csrf`).
 """
 
 from __future__ import annotations
@@ -11,10 +13,14 @@ from fastapi.exceptions import RequestValidationError
 from fastapi.responses import FileResponse, JSONResponse, Response
 from fastapi.staticfiles import StaticFiles
 from fastapi.templating import Jinja2Templates
+from sqlalchemy.exc import OperationalError
 from starlette.exceptions import HTTPException as StarletteHTTPException
 
 import screening
 from app.config import Settings
+from app.csrf import install_token
+from app.guard import RequestGuard
+from app.page_cache import PageCache
 from app.routes import alloys, api, measurements, pages, shortlist_api, shortlist_pages, substrates
 from app.store import open_store
 from screening.errors import BondgapInputError
@@ -32,8 +38,10 @@ def _error(request: Request, status: int, message: str) -> Response:
     if request.url.path.startswith("/api/") or request.url.path == "/api":
         return JSONResponse({"detail": message}, status_code=status)
     templates: Jinja2Templates = request.app.state.templates
+    # No token on error pages: a refused request (a foreign Host) must not be able to read it.
     return templates.TemplateResponse(
-        request, "error.html", {"status": status, "message": message}, status_code=status
+        request, "error.html", {"status": status, "message": message, "csrf_token": ""},
+        status_code=status,
     )
 
 
@@ -49,6 +57,17 @@ async def _validation_error(request: Request, exc: Exception) -> Response:
         where = ".".join(str(p) for p in err.get("loc", ()) if p not in ("query", "path"))
         parts.append(f"{where}: {err.get('msg', 'invalid value')}")
     return _error(request, 422, "; ".join(parts) or "invalid request")
+
+
+async def _busy_error(request: Request, exc: Exception) -> Response:
+    # The write lock stayed taken past the busy timeout (another program holds the file).
+    assert isinstance(exc, OperationalError)
+    if "locked" in str(exc.orig) or "busy" in str(exc.orig):
+        response = _error(request, 503, "the database is busy (another program is writing "
+                                        "to it); nothing was changed: try again")
+        response.headers["Retry-After"] = "1"
+        return response
+    raise exc
 
 
 async def _http_error(request: Request, exc: Exception) -> Response:
@@ -80,8 +99,15 @@ def create_app(settings: Settings) -> FastAPI:
     )
     app.state.settings = settings
     app.state.sessions = open_store(settings.db_path)
+    app.state.csrf_token = install_token(app.state.sessions.kw["bind"])
     app.state.templates = make_templates(settings)
+    app.state.templates.env.globals["csrf_token"] = app.state.csrf_token
+    # The cache sits inside the guard: a cached answer still passes the host and site checks.
+    app.add_middleware(PageCache, db_path=settings.db_path)
+    app.add_middleware(RequestGuard, hosts=settings.host_names(), token=app.state.csrf_token,
+                       refuse=_error)
     app.add_exception_handler(BondgapInputError, _input_error)
+    app.add_exception_handler(OperationalError, _busy_error)
     app.add_exception_handler(RequestValidationError, _validation_error)
     app.add_exception_handler(StarletteHTTPException, _http_error)
     app.include_router(api.router)

@@ -8,29 +8,20 @@ from __future__ import annotations
 
 from typing import Any
 
-from app.params import QueryError
+from app.text_rules import name_text, plain_text
 
 NAME_LENGTH = 80
 NOTE_LENGTH = 4000
 
 
 def check_name(name: Any) -> str:
-    """A list name: 1 to 80 characters on one line, outer spaces removed."""
-    text = str(name or "").strip()
-    if not text or len(text) > NAME_LENGTH or any(ord(ch) < 32 or ch == "\x7f" for ch in text):
-        raise QueryError(f"a shortlist name is 1 to {NAME_LENGTH} characters on one line, "
-                         f"not {text[:40]!r}")
-    return text
+    """A list name: 1 to 80 characters on one line (`app.text_rules.NAME_RULE`), trimmed."""
+    return name_text(name, what="a shortlist name", max_length=NAME_LENGTH)
 
 
 def check_note(note: Any) -> str:
-    """A note: up to 4000 characters; line breaks kept, other control characters refused."""
-    text = str(note or "").replace("\r\n", "\n").replace("\r", "\n").strip()
-    if len(text) > NOTE_LENGTH:
-        raise QueryError(f"a note is at most {NOTE_LENGTH} characters, not {len(text)}")
-    if any((ord(ch) < 32 and ch not in "\n\t") or ch == "\x7f" for ch in text):
-        raise QueryError("a note may hold line breaks and tabs but no other control characters")
-    return text
+    """A note: up to 4000 characters; line breaks and tabs kept (`app.text_rules.plain_text`)."""
+    return plain_text(note, what="a note", max_length=NOTE_LENGTH, lines=True)
 
 
 def check_formula(text: Any) -> str:

@@ -5,7 +5,8 @@ Data flows one way: `seed_data/` -> `screening` (the engine) -> this store -> pa
 Tables (models in `app.models`; the schema is owned by the Alembic revisions in
 `app/migrations/versions/`):
 
-    store_meta          key/value pairs; `model_version` is the engine version of the results
+    store_meta          key/value pairs; `model_version` is the engine version of the results,
+                        `csrf_secret` the secret of the web app's token (`app.csrf`)
     compound_results    one row per catalogue compound: indexed scalars for sorting and
                         filtering, plus the engine's full report as JSON text
 
@@ -14,7 +15,7 @@ transaction when the stored model version differs from `screening.MODEL_VERSION`
 than `compound_results` and `store_meta` (the user's own, added by later revisions) are never
 written here.
 
-Every connection runs with WAL journaling, foreign keys on and a busy timeout.
+Every connection runs with WAL journaling, foreign keys on, synchronous=FULL and a busy timeout.
 """
 
 from __future__ import annotations
@@ -35,12 +36,23 @@ import screening
 from app.models import Base, CompoundResult, StoreMeta, row_values
 
 __all__ = [
-    "WRITE_LOCK", "Base", "CompoundResult", "StoreError", "StoreMeta", "make_engine",
-    "open_store", "refresh_results", "row_values", "stored_model_version",
+    "CONNECTION_PRAGMAS", "WRITE_LOCK", "Base", "CompoundResult", "StoreError", "StoreMeta",
+    "make_engine", "open_store", "refresh_results", "row_values", "stored_model_version",
 ]
 
 WRITE_LOCK = "bondgap_write_lock"
 """Execution option: start the transaction with `BEGIN IMMEDIATE` (take the write lock first)."""
+
+
+CONNECTION_PRAGMAS: tuple[str, ...] = (
+    "PRAGMA journal_mode=WAL",
+    "PRAGMA foreign_keys=ON",
+    "PRAGMA synchronous=FULL",
+    "PRAGMA busy_timeout=10000",
+)
+"""Run on every new connection. WAL: readers do not block the writer, and a crash mid-write
+leaves the last committed state. synchronous=FULL: the WAL is synced at every commit, so an
+acknowledged change survives a power cut too (NORMAL could lose the last commits then)."""
 
 
 class StoreError(RuntimeError):
@@ -50,9 +62,9 @@ class StoreError(RuntimeError):
 def make_engine(db_path: Path) -> Engine:
     """Create the SQLAlchemy engine for one database file (the file is created on first use).
 
-    Connections get WAL journaling, foreign keys, a 10 s busy timeout, and transactions that
-    SQLAlchemy begins itself (so DDL is transactional and `WRITE_LOCK` can ask for
-    `BEGIN IMMEDIATE`).
+    Connections get `CONNECTION_PRAGMAS` (WAL journaling, foreign keys, synchronous=FULL, a
+    10 s busy timeout), and transactions that SQLAlchemy begins itself (so DDL is
+    transactional and `WRITE_LOCK` can ask for `BEGIN IMMEDIATE`).
     """
     db_path.parent.mkdir(parents=True, exist_ok=True)
     engine = create_engine(
@@ -63,8 +75,8 @@ def make_engine(db_path: Path) -> Engine:
     @event.listens_for(engine, "connect")
     def _on_connect(dbapi_connection: sqlite3.Connection, _record: object) -> None:
         dbapi_connection.isolation_level = None  # SQLAlchemy emits BEGIN below
-        for pragma in ("journal_mode=WAL", "foreign_keys=ON", "busy_timeout=10000"):
-            dbapi_connection.execute(f"PRAGMA {pragma}")
+        for statement in CONNECTION_PRAGMAS:
+            dbapi_connection.execute(statement)
 
     @event.listens_for(engine, "begin")
     def _on_begin(conn: Connection) -> None:
@@ -149,11 +161,13 @@ def open_store(db_path: Path, **refresh_options: Any) -> sessionmaker:
         A `sessionmaker` bound to the file's engine.
 
     Raises:
-        StoreError: The file is not a usable bondgap database, or it was written by a newer
-            version of bondgap.
+        StoreError: The file is a folder, unreadable, not SQLite or damaged (it is left as it
+            was: `app.db_file`), or it was written by a newer version of bondgap.
     """
+    from app.db_file import check_database_file
     from app.migrations import upgrade_to_head
 
+    check_database_file(db_path)
     try:
         engine = make_engine(db_path)
         upgrade_to_head(engine)

@@ -10,7 +10,6 @@ from __future__ import annotations
 
 import math
 import re
-from datetime import UTC, datetime
 from typing import Any
 
 from sqlalchemy import delete, select
@@ -19,6 +18,8 @@ from sqlalchemy.orm import Session
 
 from app.models import UserSubstrate
 from app.params import QueryError
+from app.text_rules import plain_text
+from app.writes import utc_now, writing
 from screening.epitaxy import SubstrateSpec, substrate_from, substrate_spec
 from screening.errors import UnknownSubstrateError
 from screening.reference import substrates
@@ -89,9 +90,7 @@ def check_substrate(*, name: str, structure: str, a_angstrom: Any,
     if kind not in HEXAGONAL_STRUCTURES and not blank_c:
         raise QueryError(f"a {kind} substrate has no c lattice constant; leave c empty")
     c = None if blank_c else _number(c_angstrom, "lattice constant c", *C_RANGE)
-    text = (note or "").strip()
-    if len(text) > NOTE_LENGTH or any(ord(ch) < 32 for ch in text):
-        raise QueryError(f"the note must be one line of at most {NOTE_LENGTH} characters")
+    text = plain_text(note, what="the note", max_length=NOTE_LENGTH)
     return {"name": clean, "structure": kind, "a_angstrom": a, "c_angstrom": c, "note": text}
 
 
@@ -159,16 +158,17 @@ def add_substrate(session: Session, **values: Any) -> dict[str, Any]:
         QueryError: Bad values. SubstrateConflict: a built-in name or one already stored.
     """
     clean = check_substrate(**values)
-    if _user_row(session, clean["name"]) is not None:
-        raise SubstrateConflict(f"you already have a substrate named {clean['name']!r}; "
-                                "delete it first or choose another name")
-    row = UserSubstrate(**clean, created_at=datetime.now(UTC).replace(tzinfo=None))
-    session.add(row)
-    try:
-        session.commit()
-    except IntegrityError as exc:  # another request stored the same name meanwhile
-        session.rollback()
-        raise SubstrateConflict(f"a substrate named {clean['name']!r} already exists") from exc
+    with writing(session):
+        if _user_row(session, clean["name"]) is not None:
+            raise SubstrateConflict(f"you already have a substrate named {clean['name']!r}; "
+                                    "delete it first or choose another name")
+        row = UserSubstrate(**clean, created_at=utc_now())
+        session.add(row)
+        try:
+            session.flush()
+        except IntegrityError as exc:  # the unique index has the last word
+            raise SubstrateConflict(f"a substrate named {clean['name']!r} already "
+                                    "exists") from exc
     return _row_dict(row)
 
 
@@ -181,7 +181,7 @@ def delete_substrate(session: Session, name: str) -> None:
     built_in = _built_in_name(name.strip())
     if built_in:
         raise QueryError(f"{built_in!r} is a built-in substrate and cannot be deleted")
-    done = session.execute(delete(UserSubstrate).where(UserSubstrate.name == name))
-    session.commit()
-    if not done.rowcount:
-        raise SubstrateNotFound(f"you have no substrate named {name[:50]!r}")
+    with writing(session):
+        done = session.execute(delete(UserSubstrate).where(UserSubstrate.name == name))
+        if not done.rowcount:
+            raise SubstrateNotFound(f"you have no substrate named {name[:50]!r}")

@@ -15,12 +15,14 @@ import sys
 import time
 from collections.abc import Iterator
 from pathlib import Path
-from typing import Any
+from typing import Any, NamedTuple
 
 import httpx
 import pytest
 
 CHROMIUM = "/usr/bin/chromium"
+REBIND_HOST = "rebind.test"
+"""A name chromium resolves to 127.0.0.1 in the browser tests, as a rebinding attack would."""
 CHROMIUM_ARGS = [
     "--headless",
     "--no-sandbox",
@@ -30,6 +32,7 @@ CHROMIUM_ARGS = [
     "--disable-background-networking",
     "--disable-component-update",
     "--disable-sync",
+    f"--host-resolver-rules=MAP {REBIND_HOST} 127.0.0.1",  # a DNS-rebinding attacker's name
 ]
 REPO_ROOT = Path(__file__).resolve().parent.parent
 
@@ -64,22 +67,45 @@ def db_path(seeded_db_template: Path, tmp_path: Path) -> Path:
     return target
 
 
+TEST_HOST = "testserver"
+"""The Host header Starlette's TestClient sends: allowed in the tests' settings only."""
+
+
 @pytest.fixture
 def settings(db_path: Path) -> Any:
-    """App settings pointing at this test's database."""
+    """App settings pointing at this test's database (TestClient's host name allowed)."""
     from app.config import Settings
 
-    return Settings(db_path=db_path)
+    return Settings(db_path=db_path, allowed_hosts=(TEST_HOST,))
+
+
+def csrf_headers(client: Any, base_url: str = "") -> dict[str, str]:
+    """The header every state-changing request needs, fetched as a client does: GET /api/token.
+
+    Args:
+        client: Anything with httpx's `get`: a TestClient, an `httpx.Client`, the `httpx` module.
+        base_url: Put before the path (a live server's address, e.g. "http://127.0.0.1:8123").
+
+    Returns:
+        {"X-Bondgap-Token": token}, to pass as `headers=` (or to add to a client's headers).
+    """
+    answer = client.get(base_url.rstrip("/") + "/api/token")
+    assert answer.status_code == 200, answer.text
+    return {answer.json()["header"]: answer.json()["token"]}
 
 
 @pytest.fixture
 def client(settings: Any) -> Iterator[Any]:
-    """A TestClient on an app built from this test's database."""
+    """A TestClient on an app built from this test's database, sending the token with every request.
+
+    The token comes from `csrf_headers`; build a TestClient of your own for requests without it.
+    """
     from fastapi.testclient import TestClient
 
     from app.main import create_app
 
     with TestClient(create_app(settings)) as test_client:
+        test_client.headers.update(csrf_headers(test_client))
         yield test_client
 
 
@@ -90,37 +116,40 @@ def free_port() -> int:
         return sock.getsockname()[1]
 
 
-@pytest.fixture(scope="session")
-def live_server(
-    seeded_db_template: Path, tmp_path_factory: pytest.TempPathFactory
-) -> Iterator[str]:
+class Server(NamedTuple):
+    """A running `bondgap serve`: its base URL (no trailing slash) and its process."""
+
+    url: str
+    process: subprocess.Popen
+
+
+@contextlib.contextmanager
+def serving(db: Path, log: Path, *options: str) -> Iterator[Server]:
     """Run `bondgap serve` (uvicorn) in a subprocess on 127.0.0.1 and a free port.
 
-    Yields the base URL once the server answers; stops the process by its pid afterwards.
+    Yields once the server answers; stops it by its pid afterwards (SIGTERM, then SIGKILL) if
+    it still runs. Its output goes to `log` (appended).
     """
-    folder = tmp_path_factory.mktemp("live")
-    db = folder / "bondgap.db"
-    shutil.copyfile(seeded_db_template, db)
     port = free_port()
-    log = (folder / "server.log").open("w")
-    env = {**os.environ, "PYTHONUNBUFFERED": "1"}
-    proc = subprocess.Popen(
-        [sys.executable, "-m", "app", "serve", "--port", str(port), "--db", str(db)],
-        cwd=REPO_ROOT, stdout=log, stderr=subprocess.STDOUT, env=env,
-    )
-    url = f"http://127.0.0.1:{port}/"
+    with log.open("a") as out:
+        proc = subprocess.Popen(
+            [sys.executable, "-m", "app", "serve", "--port", str(port), "--db", str(db),
+             *options],
+            cwd=REPO_ROOT, stdout=out, stderr=subprocess.STDOUT,
+            env={**os.environ, "PYTHONUNBUFFERED": "1"})
+    url = f"http://127.0.0.1:{port}"
     try:
         deadline = time.monotonic() + 60
         while True:
             if proc.poll() is not None:
-                raise RuntimeError(f"server exited: {(folder / 'server.log').read_text()}")
+                raise RuntimeError(f"server exited: {log.read_text()}")
             with contextlib.suppress(httpx.TransportError):
-                if httpx.get(url + "api/status", timeout=2).status_code == 200:
+                if httpx.get(url + "/api/status", timeout=2).status_code == 200:
                     break
             if time.monotonic() > deadline:
                 raise RuntimeError("server did not answer within 60 s")
             time.sleep(0.2)
-        yield url
+        yield Server(url, proc)
     finally:
         if proc.poll() is None:
             os.kill(proc.pid, signal.SIGTERM)
@@ -129,4 +158,18 @@ def live_server(
             except subprocess.TimeoutExpired:
                 os.kill(proc.pid, signal.SIGKILL)
                 proc.wait()
-        log.close()
+
+
+@pytest.fixture(scope="session")
+def live_server(
+    seeded_db_template: Path, tmp_path_factory: pytest.TempPathFactory
+) -> Iterator[str]:
+    """`serving` on a copy of the seeded database, for the whole session.
+
+    Yields the base URL with a trailing slash.
+    """
+    folder = tmp_path_factory.mktemp("live")
+    db = folder / "bondgap.db"
+    shutil.copyfile(seeded_db_template, db)
+    with serving(db, folder / "server.log") as server:
+        yield server.url + "/"

@@ -4,13 +4,14 @@ from __future__ import annotations
 
 from typing import Annotated, Any
 
-from fastapi import APIRouter, Path, Query
-from fastapi.responses import PlainTextResponse
+from fastapi import APIRouter, Path, Query, Request
+from fastapi.responses import JSONResponse, PlainTextResponse
 
 import screening
 from app import queries
 from app.accuracy import accuracy_payload
 from app.band_data import bands_payload
+from app.csrf import FORM_FIELD, TOKEN_HEADER
 from app.deps import PointsDep, SessionDep, TableQueryDep, TemperatureDep
 
 router = APIRouter(prefix="/api", tags=["compounds"])
@@ -103,3 +104,16 @@ def status(session: SessionDep) -> dict[str, Any]:
         "stored_model_version": queries.model_version(session),
         "compounds": queries.compound_count(session),
     }
+
+
+@router.get("/token", summary="Token for changes", tags=["security"], responses={
+    403: {"description": "Asked for by another site's page"}})
+def token(request: Request) -> JSONResponse:
+    """The token every change (POST, PATCH, PUT, DELETE) must send in the X-Bondgap-Token header.
+
+    Readable only by the app's own pages and programs on this machine: another site's page
+    cannot read this answer, and is refused when its Origin shows. The app's forms carry the
+    same token in the field csrf_token.
+    """
+    return JSONResponse({"token": request.app.state.csrf_token, "header": TOKEN_HEADER,
+                         "form_field": FORM_FIELD}, headers={"Cache-Control": "no-store"})

@@ -5,7 +5,7 @@ from __future__ import annotations
 from typing import Annotated, Any
 from urllib.parse import urlencode
 
-from fastapi import APIRouter, Form, Query, Request
+from fastapi import APIRouter, Form, Path, Query, Request
 from fastapi.concurrency import run_in_threadpool
 from fastapi.responses import PlainTextResponse, RedirectResponse, Response
 from starlette.datastructures import UploadFile
@@ -20,6 +20,7 @@ from app.imports import (
     ImportRefused,
     ImportTooLarge,
     check_size,
+    check_type,
     delete_batch,
     import_measurements,
     measurement_rows,
@@ -31,9 +32,14 @@ router = APIRouter()
 FORM_OVERHEAD = 16_384
 """Bytes a multipart form may add around the file before the size check refuses it."""
 
+Batch = Annotated[str, Path(pattern=r"^[0-9a-f]{1,32}$",
+                           description="Import id (hex digits), as listed with the values")]
+Count = Annotated[int | None, Query(ge=0, le=10 * MAX_ROWS)]
+
 ERRORS: dict[int | str, dict[str, Any]] = {
     400: {"description": 'A bad file, as {"detail": "line N, column C: what is wrong"}'},
     413: {"description": "A file over 1 MB"},
+    415: {"description": "A body or file sent as another media type than CSV text"},
 }
 
 
@@ -42,6 +48,7 @@ async def read_upload(request: Request) -> bytes:
 
     Raises:
         ImportTooLarge: Over `MAX_BYTES` (refused from Content-Length before reading).
+        ImportUnsupported: Sent as a media type that is not CSV text.
         ImportRefused: A form without a file.
     """
     length = request.headers.get("content-length", "")
@@ -53,10 +60,12 @@ async def read_upload(request: Request) -> bytes:
             upload = form.get("file")
             if not isinstance(upload, UploadFile):
                 raise ImportRefused("choose a CSV file to import (form field 'file')")
+            check_type(upload.content_type)
             data = await upload.read(MAX_BYTES + 1)
         finally:
             await form.close()
     else:
+        check_type(request.headers.get("content-type"))
         chunks = bytearray()
         async for chunk in request.stream():
             chunks += chunk
@@ -77,8 +86,8 @@ def _page(request: Request, session: Any, *, status: int = 200, **context: Any) 
 
 
 @router.get("/measurements", include_in_schema=False)
-def measurements_page(request: Request, session: SessionDep, imported: int | None = None,
-                      replaced: int = 0, deleted: int | None = None) -> Response:
+def measurements_page(request: Request, session: SessionDep, imported: Count = None,
+                      replaced: Count = 0, deleted: Count = None) -> Response:
     """The user's values, the import form and the template."""
     return _page(request, session, imported=imported, replaced=replaced, deleted=deleted)
 
@@ -99,7 +108,7 @@ async def import_page(request: Request, session: SessionDep) -> Response:
 
 
 @router.get("/measurements/batches/{batch}/delete", include_in_schema=False)
-def confirm_delete(request: Request, batch: str) -> Response:
+def confirm_delete(request: Request, batch: Batch) -> Response:
     """Ask before deleting an import."""
     return request.app.state.templates.TemplateResponse(request, "confirm.html", {
         "title": "Delete an import",
@@ -108,7 +117,7 @@ def confirm_delete(request: Request, batch: str) -> Response:
 
 
 @router.post("/measurements/batches/{batch}/delete", include_in_schema=False)
-def delete_page(session: SessionDep, batch: str,
+def delete_page(session: SessionDep, batch: Batch,
                 confirm: Annotated[str, Form()] = "") -> Response:
     """Delete an import once confirmed."""
     if confirm != "yes":
@@ -140,7 +149,7 @@ async def import_api(request: Request, session: SessionDep) -> dict[str, Any]:
 
 @router.delete("/api/measurements/batches/{batch}", tags=["measurements"],
                summary="Delete an import")
-def delete_api(session: SessionDep, batch: str,
+def delete_api(session: SessionDep, batch: Batch,
                confirm: Annotated[str, Query(description="Must be yes")] = "") -> dict[str, int]:
     """Delete the values of one import; asks for confirm=yes."""
     if confirm != "yes":

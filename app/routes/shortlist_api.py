@@ -14,10 +14,12 @@ from app.candidates import ShortlistView, load_shortlist
 from app.compare import compare_rows
 from app.compare_payload import chart_data, rows_payload
 from app.conditions import Conditions
-from app.deps import SessionDep
+from app.deps import SessionDep, ShortlistId
 from app.exports import cells_zip, shortlist_csv, shortlist_json
 from app.params import QueryError, TableQuery
 from app.queries import table_rows
+from app.shortlist_checks import NAME_LENGTH, NOTE_LENGTH
+from app.text_rules import NAME_RULE, JsonText
 from screening.errors import BondgapInputError
 
 router = APIRouter(prefix="/api/shortlists", tags=["shortlists"])
@@ -33,37 +35,42 @@ ERRORS: dict[int | str, dict[str, Any]] = {
 class ConditionsIn(BaseModel):
     """Conditions as JSON; each field optional."""
 
-    substrate: str | None = Field(None, description="Substrate name (built-in or yours)")
+    substrate: JsonText | None = Field(None, description="Substrate name (built-in or yours)")
     temperature_K: float | None = Field(None, description="Temperature of the gaps, 0 to 2000 K")
-    target_gap_eV: float | None = Field(None, description="Target band gap, eV")
-    target_wavelength_nm: float | None = Field(None, description="Target wavelength, nm")
+    target_gap_eV: float | None = Field(None, description="Target band gap, eV (0 to 15)")
+    target_wavelength_nm: float | None = Field(None, description="Target wavelength, nm "
+                                                                 "(50 to 100000)")
 
 
 class ShortlistIn(ConditionsIn):
     """A new shortlist."""
 
-    name: str = Field(description="Unique name, 1 to 80 characters")
-    note: str = Field("", description="Why this list (up to 4000 characters)")
+    name: JsonText = Field(description=f"Unique name, 1 to {NAME_LENGTH} characters: "
+                                       f"{NAME_RULE}")
+    note: JsonText = Field("", description=f"Why this list (up to {NOTE_LENGTH} characters)")
 
 
 class ShortlistPatch(ConditionsIn):
     """Changes to a shortlist: only the fields given change."""
 
-    name: str | None = None
-    note: str | None = None
+    name: JsonText | None = Field(None, description=f"New name, 1 to {NAME_LENGTH} characters")
+    note: JsonText | None = Field(None, description=f"New note, up to {NOTE_LENGTH} characters")
 
 
 class ItemsIn(BaseModel):
     """Candidates to add: binaries or alloy compositions."""
 
-    formulas: list[str] = Field(description="e.g. [\"GaAs\", \"In0.53Ga0.47As\"]")
-    note: str = ""
+    formulas: list[JsonText] = Field(max_length=store.MAX_ITEMS,
+                                     description="1 to 200 formulas, e.g. "
+                                                 "[\"GaAs\", \"In0.53Ga0.47As\"]")
+    note: JsonText = Field("", description=f"Note on each added candidate (up to {NOTE_LENGTH} "
+                                           "characters)")
 
 
 class NoteIn(BaseModel):
     """A candidate's note."""
 
-    note: str
+    note: JsonText = Field(description=f"Up to {NOTE_LENGTH} characters")
 
 
 CONDITION_FIELDS = ("substrate", "temperature_K", "target_gap_eV", "target_wavelength_nm")
@@ -107,13 +114,13 @@ def create(session: SessionDep, body: ShortlistIn) -> dict[str, Any]:
 
 
 @router.get("/{shortlist_id}", responses=ERRORS, summary="One shortlist")
-def get_one(session: SessionDep, shortlist_id: int) -> dict[str, Any]:
+def get_one(session: SessionDep, shortlist_id: ShortlistId) -> dict[str, Any]:
     """A shortlist with its candidates and their notes."""
     return _one(session, shortlist_id)
 
 
 @router.patch("/{shortlist_id}", responses=ERRORS, summary="Rename or change a shortlist")
-def patch(session: SessionDep, shortlist_id: int, body: ShortlistPatch) -> dict[str, Any]:
+def patch(session: SessionDep, shortlist_id: ShortlistId, body: ShortlistPatch) -> dict[str, Any]:
     """Change the name, the note or any of the conditions (fields not given stay)."""
     shortlist = store.get_shortlist(session, shortlist_id=shortlist_id)
     conditions = _conditions(session, body, store.conditions_of(shortlist))
@@ -124,7 +131,7 @@ def patch(session: SessionDep, shortlist_id: int, body: ShortlistPatch) -> dict[
 
 @router.delete("/{shortlist_id}", status_code=204, responses=ERRORS,
                summary="Delete a shortlist")
-def delete(session: SessionDep, shortlist_id: int,
+def delete(session: SessionDep, shortlist_id: ShortlistId,
            confirm: Annotated[str, Query(description="Must be yes")] = "") -> Response:
     """Delete a shortlist and its candidates; asks for confirm=yes."""
     if confirm != "yes":
@@ -135,7 +142,7 @@ def delete(session: SessionDep, shortlist_id: int,
 
 @router.post("/{shortlist_id}/items", status_code=201, responses=ERRORS,
              summary="Add candidates")
-def add_items(session: SessionDep, shortlist_id: int, body: ItemsIn) -> dict[str, Any]:
+def add_items(session: SessionDep, shortlist_id: ShortlistId, body: ItemsIn) -> dict[str, Any]:
     """Add binaries or alloy compositions (normalised; those on the list already stay)."""
     done = store.add_items(session, shortlist_id=shortlist_id, formulas=body.formulas,
                            note=body.note)
@@ -144,7 +151,7 @@ def add_items(session: SessionDep, shortlist_id: int, body: ItemsIn) -> dict[str
 
 @router.patch("/{shortlist_id}/items/{formula}", responses=ERRORS,
               summary="Change a candidate's note")
-def note_item(session: SessionDep, shortlist_id: int, formula: str, body: NoteIn
+def note_item(session: SessionDep, shortlist_id: ShortlistId, formula: str, body: NoteIn
               ) -> dict[str, Any]:
     """Replace the note of one candidate."""
     store.set_item_note(session, shortlist_id=shortlist_id, formula=formula, note=body.note)
@@ -153,7 +160,7 @@ def note_item(session: SessionDep, shortlist_id: int, formula: str, body: NoteIn
 
 @router.delete("/{shortlist_id}/items/{formula}", responses=ERRORS,
                summary="Remove a candidate")
-def remove_item(session: SessionDep, shortlist_id: int, formula: str) -> dict[str, Any]:
+def remove_item(session: SessionDep, shortlist_id: ShortlistId, formula: str) -> dict[str, Any]:
     """Take one candidate off the list."""
     store.remove_item(session, shortlist_id=shortlist_id, formula=formula)
     return _one(session, shortlist_id)
@@ -173,7 +180,7 @@ def compare_payload(session: Any, view: ShortlistView) -> dict[str, Any]:
 
 
 @router.get("/{shortlist_id}/compare", responses=ERRORS, summary="Compare candidates")
-def compare(session: SessionDep, shortlist_id: int,
+def compare(session: SessionDep, shortlist_id: ShortlistId,
             formula: Annotated[list[str] | None, Query(
                 description="Candidates to compare (2 to 8; default: the whole list)")] = None,
             ) -> dict[str, Any]:
@@ -194,7 +201,7 @@ def _download(body: str | bytes, media_type: str, filename: str) -> Response:
 
 
 @router.get("/{shortlist_id}/export.csv", responses=ERRORS, summary="Export as CSV")
-def export_csv(session: SessionDep, shortlist_id: int) -> Response:
+def export_csv(session: SessionDep, shortlist_id: ShortlistId) -> Response:
     """One row per candidate, after a #-header block (units, model version, conditions)."""
     view = load_shortlist(session, shortlist_id=shortlist_id)
     text = shortlist_csv(view.data, view.candidates, view.conditions)
@@ -203,7 +210,7 @@ def export_csv(session: SessionDep, shortlist_id: int) -> Response:
 
 
 @router.get("/{shortlist_id}/export.json", responses=ERRORS, summary="Export as JSON")
-def export_json(session: SessionDep, shortlist_id: int) -> Response:
+def export_json(session: SessionDep, shortlist_id: ShortlistId) -> Response:
     """The list, its conditions and each candidate's full report."""
     view = load_shortlist(session, shortlist_id=shortlist_id)
     text = shortlist_json(view.data, view.candidates, view.conditions)
@@ -211,7 +218,7 @@ def export_json(session: SessionDep, shortlist_id: int) -> Response:
 
 
 @router.get("/{shortlist_id}/cells.zip", responses=ERRORS, summary="Crystal cells (zip)")
-def export_cells(session: SessionDep, shortlist_id: int) -> Response:
+def export_cells(session: SessionDep, shortlist_id: ShortlistId) -> Response:
     """Each candidate's cell as CIF (and POSCAR for binaries); alloys as virtual crystals."""
     view = load_shortlist(session, shortlist_id=shortlist_id)
     return _download(cells_zip(view.candidates), "application/zip",

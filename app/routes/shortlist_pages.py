@@ -16,11 +16,12 @@ from app import views
 from app.candidates import ShortlistView, caution_elements, load_shortlist, rohs_elements
 from app.compare import MAX_COMPARED, MIN_COMPARED
 from app.conditions import Conditions
-from app.deps import SessionDep
+from app.deps import SessionDep, ShortlistId
 from app.params import QueryError
 from app.routes.shortlist_api import compare_payload
 from app.shortlist_checks import check_formula, split_formulas
 from app.substrates import substrate_rows
+from app.text_rules import parse_id
 from screening.hazards import ROHS_RESTRICTED, ROHS_SOURCE
 
 router = APIRouter(include_in_schema=False)
@@ -81,8 +82,8 @@ def add_from_anywhere(session: SessionDep, formula: Annotated[list[str] | None, 
         check_formula(text)
     if new_name.strip():
         target_id = store.create_shortlist(session, name=new_name).id
-    elif shortlist.strip().isdigit():
-        target_id = int(shortlist)
+    elif shortlist.strip():
+        target_id = parse_id(shortlist, "the shortlist")
     else:
         raise QueryError("choose a shortlist, or give a name for a new one")
     store.add_items(session, shortlist_id=target_id, formulas=formulas, note=note)
@@ -90,7 +91,7 @@ def add_from_anywhere(session: SessionDep, formula: Annotated[list[str] | None, 
 
 
 @router.get("/shortlists/{shortlist_id}")
-def shortlist_page(request: Request, session: SessionDep, shortlist_id: int) -> Response:
+def shortlist_page(request: Request, session: SessionDep, shortlist_id: ShortlistId) -> Response:
     """One list: its candidates with notes and key numbers, conditions, exports."""
     view = load_shortlist(session, shortlist_id=shortlist_id)
     return _render(request, "shortlist.html", {
@@ -102,7 +103,7 @@ def shortlist_page(request: Request, session: SessionDep, shortlist_id: int) -> 
 
 
 @router.post("/shortlists/{shortlist_id}")
-def edit(session: SessionDep, shortlist_id: int, name: Text, note: Text = "",
+def edit(session: SessionDep, shortlist_id: ShortlistId, name: Text, note: Text = "",
          substrate: Text = "", temperature: Text = "", target_gap: Text = "",
          target_wavelength: Text = "") -> Response:
     """Rename a list, change its note and conditions."""
@@ -113,7 +114,8 @@ def edit(session: SessionDep, shortlist_id: int, name: Text, note: Text = "",
 
 
 @router.post("/shortlists/{shortlist_id}/items")
-def add(session: SessionDep, shortlist_id: int, formulas: Text, note: Text = "") -> Response:
+def add(session: SessionDep, shortlist_id: ShortlistId, formulas: Text,
+        note: Text = "") -> Response:
     """Add candidates typed into the list's page (several at once, separated by spaces)."""
     store.add_items(session, shortlist_id=shortlist_id,
                     formulas=split_formulas(formulas), note=note)
@@ -121,21 +123,22 @@ def add(session: SessionDep, shortlist_id: int, formulas: Text, note: Text = "")
 
 
 @router.post("/shortlists/{shortlist_id}/items/note")
-def note(session: SessionDep, shortlist_id: int, formula: Text, note: Text = "") -> Response:
+def note(session: SessionDep, shortlist_id: ShortlistId, formula: Text,
+         note: Text = "") -> Response:
     """Save a candidate's note."""
     store.set_item_note(session, shortlist_id=shortlist_id, formula=formula, note=note)
     return _back(shortlist_id, f"#item-{formula}")
 
 
 @router.post("/shortlists/{shortlist_id}/items/remove")
-def remove(session: SessionDep, shortlist_id: int, formula: Text) -> Response:
+def remove(session: SessionDep, shortlist_id: ShortlistId, formula: Text) -> Response:
     """Take a candidate off the list."""
     store.remove_item(session, shortlist_id=shortlist_id, formula=formula)
     return _back(shortlist_id)
 
 
 @router.get("/shortlists/{shortlist_id}/delete")
-def confirm_delete(request: Request, session: SessionDep, shortlist_id: int) -> Response:
+def confirm_delete(request: Request, session: SessionDep, shortlist_id: ShortlistId) -> Response:
     """Ask before deleting a list."""
     shortlist = store.get_shortlist(session, shortlist_id=shortlist_id)
     count = len(store.items_of(session, shortlist.id))
@@ -148,7 +151,7 @@ def confirm_delete(request: Request, session: SessionDep, shortlist_id: int) -> 
 
 
 @router.post("/shortlists/{shortlist_id}/delete")
-def delete(session: SessionDep, shortlist_id: int, confirm: Text = "") -> Response:
+def delete(session: SessionDep, shortlist_id: ShortlistId, confirm: Text = "") -> Response:
     """Delete a list once confirmed."""
     if confirm != "yes":
         raise QueryError("deleting a shortlist needs confirm=yes (use the confirmation page)")
@@ -157,7 +160,7 @@ def delete(session: SessionDep, shortlist_id: int, confirm: Text = "") -> Respon
 
 
 @router.get("/shortlists/{shortlist_id}/compare")
-def compare_page(request: Request, session: SessionDep, shortlist_id: int,
+def compare_page(request: Request, session: SessionDep, shortlist_id: ShortlistId,
                  formula: Annotated[list[str] | None, Query()] = None) -> Response:
     """Two to eight candidates side by side, with the gap against lattice constant chart."""
     view = load_shortlist(session, shortlist_id=shortlist_id, formulas=formula)

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 from typing import Annotated, Any
-from urllib.parse import urlencode, urlsplit
+from urllib.parse import urlencode
 
 from fastapi import APIRouter, Form, HTTPException, Request
 from fastapi.responses import RedirectResponse, Response
@@ -21,6 +21,7 @@ from app.substrates import (
     delete_substrate,
     substrate_rows,
 )
+from app.text_rules import JsonText
 from screening.epitaxy import MISMATCH_CONVENTION
 from screening.errors import BondgapInputError
 
@@ -35,12 +36,12 @@ ERRORS: dict[int | str, dict[str, Any]] = {
 class SubstrateIn(BaseModel):
     """A substrate of the user's own, as sent to `POST /api/substrates`."""
 
-    name: str = Field(description=NAME_RULE)
-    structure: str = Field(description=f"One of {', '.join(STRUCTURE_CHOICES)}")
+    name: JsonText = Field(description=NAME_RULE)
+    structure: JsonText = Field(description=f"One of {', '.join(STRUCTURE_CHOICES)}")
     a_angstrom: float = Field(description=f"Cubic a or hexagonal in-plane a, {A_RANGE[0]:g} to "
                                           f"{A_RANGE[1]:g} Å")
     c_angstrom: float | None = Field(None, description="Hexagonal c, Å (hexagonal only)")
-    note: str = Field("", description="One line, at most 200 characters")
+    note: JsonText = Field("", description="One line, at most 200 characters")
 
 
 def _status(exc: BondgapInputError) -> int:
@@ -80,13 +81,6 @@ def remove_substrate(session: SessionDep, name: str) -> dict[str, Any]:
     return {"deleted": name}
 
 
-def _same_origin(request: Request) -> None:
-    """Refuse form posts sent by another site's page (the app has no login)."""
-    origin = request.headers.get("origin")
-    if origin and origin != "null" and urlsplit(origin).netloc != request.url.netloc:
-        raise HTTPException(403, "form posted from another site; use the page itself")
-
-
 def _page(request: Request, session: SessionDep, *, status: int = 200, error: str | None = None,
           form: dict[str, Any] | None = None) -> Response:
     return request.app.state.templates.TemplateResponse(request, "substrates.html", {
@@ -108,7 +102,6 @@ def add_from_form(request: Request, session: SessionDep, name: Annotated[str, Fo
                   c_angstrom: Annotated[str, Form()] = "", note: Annotated[str, Form()] = ""
                   ) -> Response:
     """Add a substrate from the page's form; on bad input show the form again with why."""
-    _same_origin(request)
     form = {"name": name, "structure": structure, "a_angstrom": a_angstrom,
             "c_angstrom": c_angstrom, "note": note}
     try:
@@ -122,7 +115,6 @@ def add_from_form(request: Request, session: SessionDep, name: Annotated[str, Fo
 @router.post("/substrates/{name}/delete", include_in_schema=False)
 def delete_from_form(request: Request, session: SessionDep, name: str) -> Response:
     """Delete one of the user's substrates from the page."""
-    _same_origin(request)
     try:
         delete_substrate(session, name)
     except BondgapInputError as exc:
