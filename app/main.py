@@ -23,7 +23,7 @@ from app.guard import RequestGuard
 from app.page_cache import PageCache
 from app.routes import alloys, api, measurements, pages, shortlist_api, shortlist_pages, substrates
 from app.store import open_store
-from screening.errors import BondgapInputError
+from screening.errors import BondgapInputError, one_line
 
 
 def make_templates(settings: Settings) -> Jinja2Templates:
@@ -34,7 +34,8 @@ def make_templates(settings: Settings) -> Jinja2Templates:
 
 
 def _error(request: Request, status: int, message: str) -> Response:
-    """Answer an error as JSON under /api/, as a page elsewhere."""
+    """Answer an error as JSON under /api/, as a page elsewhere (the message on one line)."""
+    message = one_line(message)
     if request.url.path.startswith("/api/") or request.url.path == "/api":
         return JSONResponse({"detail": message}, status_code=status)
     templates: Jinja2Templates = request.app.state.templates

@@ -21,8 +21,20 @@ Every message says what was wrong and what is accepted.
 """
 
 
+def one_line(text: object) -> str:
+    """The text on one line: control characters (line breaks, tabs, ...) shown escaped."""
+    return "".join(ch if ch.isprintable() else repr(ch)[1:-1] for ch in str(text))
+
+
 class BondgapInputError(ValueError):
-    """Base class for every kind of input the engine rejects."""
+    """Base class for every kind of input the engine rejects.
+
+    The message is always one line: control characters that came in with the user's text
+    (line breaks, tabs, ...) are shown escaped, as Python writes them.
+    """
+
+    def __init__(self, message: object = "", *args: object) -> None:
+        super().__init__(one_line(message), *args)
 
 
 class UnknownElementError(BondgapInputError):

@@ -55,3 +55,10 @@ def test_rejected_formulas_say_why(text: str, error: type[Exception], words: str
         parse_compound(text)
     assert isinstance(caught.value, BondgapInputError)
     assert words in str(caught.value)
+
+
+def test_error_messages_stay_on_one_line() -> None:
+    # A line break typed into a formula is shown escaped: every message is one line.
+    with pytest.raises(FormulaSyntaxError) as caught:
+        parse_compound("Ga\nAs")
+    assert "\n" not in str(caught.value) and "\\n" in str(caught.value)
