@@ -78,6 +78,28 @@ async def _http_error(request: Request, exc: Exception) -> Response:
     return _error(request, exc.status_code, str(exc.detail))
 
 
+def _describe_errors_as_answered(app: FastAPI) -> None:
+    """Make the OpenAPI document describe 422 answers as they are sent: {"detail": "..."}."""
+    stock = app.openapi
+
+    def openapi() -> dict:
+        if app.openapi_schema is None:
+            schema = stock()
+            components = schema.get("components", {}).get("schemas", {})
+            if "HTTPValidationError" in components:
+                components["HTTPValidationError"] = {
+                    "title": "HTTPValidationError",
+                    "type": "object",
+                    "properties": {"detail": {"type": "string", "title": "Detail"}},
+                    "required": ["detail"],
+                }
+                components.pop("ValidationError", None)
+            app.openapi_schema = schema
+        return app.openapi_schema
+
+    app.openapi = openapi  # type: ignore[method-assign]
+
+
 def create_app(settings: Settings) -> FastAPI:
     """Create the app: migrate and refresh the database, then mount pages, API and assets.
 
@@ -119,6 +141,7 @@ def create_app(settings: Settings) -> FastAPI:
     app.include_router(measurements.router)
     app.include_router(pages.router)
     app.mount("/static", StaticFiles(directory=settings.static_dir), name="static")
+    _describe_errors_as_answered(app)
 
     @app.get("/vendor/plotly.min.js", include_in_schema=False)
     def plotly_js() -> FileResponse:
