@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from dataclasses import replace
 from typing import Annotated, Any
 from urllib.parse import quote, urlencode
 
@@ -34,6 +35,9 @@ COLUMNS: tuple[tuple[str, str, str], ...] = (
     ("critical_thickness_nm", "Critical thickness", "nm"),
 )
 """Sortable columns of the results table: key, header, unit."""
+
+PAGE_MAX_ROWS = 2000
+"""Most rows the finder page shows (the API gives up to the full limit)."""
 
 PARAMS = ("system", "on", "gap", "wavelength", "tolerance", "temperature", "max_mismatch",
           "thickness", "geometry", "sort", "desc", "limit")
@@ -148,6 +152,7 @@ def finder_page(request: Request, session: SessionDep) -> Response:
     if request.query_params:
         try:
             query = _query_of(request)
+            query = replace(query, limit=min(query.limit, PAGE_MAX_ROWS))
             run = run_match(session, query)
         except BondgapInputError as exc:
             context["error"], status = str(exc), 400
