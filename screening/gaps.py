@@ -170,7 +170,15 @@ class GapsAt:
 
 
 def gaps_at(temperature_K: float = 300.0) -> GapsAt:
-    """Measured and estimated gaps of the whole catalogue at one temperature (K)."""
+    """Measured and estimated gaps of the whole catalogue at one temperature (K).
+
+    Cached per temperature; the arrays of the result are read-only.
+    """
+    return _gaps_at(float(temperature_K))
+
+
+@lru_cache(maxsize=64)
+def _gaps_at(temperature_K: float) -> GapsAt:
     model = gap_model()
     formulas = [c.formula for c in catalogue_table().compounds]
     shift = gaps_at_temperature(formulas, np.ones(len(formulas)), [temperature_K])
@@ -184,7 +192,7 @@ def gaps_at(temperature_K: float = 300.0) -> GapsAt:
     estimate = moved(model.estimate_300K_eV)
     has_measured = np.isfinite(model.measured_300K_eV)
     value = np.where(has_measured, measured, estimate)
-    return GapsAt(
+    result = GapsAt(
         temperature_K=float(temperature_K),
         measured_eV=measured,
         estimate_eV=estimate,
@@ -196,3 +204,7 @@ def gaps_at(temperature_K: float = 300.0) -> GapsAt:
         temperature_law_assumed=shift.assumed,
         temperature_law_source=shift.sources,
     )
+    for array in vars(result).values():
+        if isinstance(array, np.ndarray):
+            array.setflags(write=False)
+    return result
