@@ -150,3 +150,15 @@ def test_finder_page_cautions_for_hazardous_matches(client) -> None:
     soup = soup_of(client.get("/alloys", params={"system": "InGaAs", "on": "InP", "gap": "0.75"}))
     caution = soup.select_one("footer .caution").get_text()
     assert "As" in caution and "safety data sheets" in caution
+
+
+def test_gaps_that_are_not_measured_carry_their_uncertainty(client) -> None:
+    # An estimate (BSb has no measured gap) and an alloy gap are never shown without their ±;
+    # a measured gap (GaAs) is shown as measured.
+    url = create(client, name="Uncertain")
+    client.post(url + "/items", data={"formulas": "GaAs BSb In0.53Ga0.47As", "note": ""})
+    soup = soup_of(client.get(url))
+    cells = {r["data-formula"]: r.select_one("td[data-key='band_gap_eV']").get_text(" ")
+             for r in soup.select("#candidates tbody tr[data-formula]")}
+    assert "±" not in cells["GaAs"]
+    assert "±" in cells["BSb"] and "±" in cells["In0.53Ga0.47As"]
