@@ -77,7 +77,6 @@ class GapModel:
 
     Attributes:
         tight_binding: the sp3 model's gaps per compound.
-        features: design matrix (ncompound, 4), columns as in FEATURE_NAMES.
         fit: the fit on the compounds with a measured gap.
         measured_300K_eV: measured gap, NaN where none.
         estimate_300K_eV: the estimator's value (never replaces the measurement).
@@ -86,7 +85,6 @@ class GapModel:
     """
 
     tight_binding: BandGaps
-    features: NDArray[np.float64]
     fit: LinearFit
     measured_300K_eV: NDArray[np.float64]
     estimate_300K_eV: NDArray[np.float64]
@@ -139,7 +137,6 @@ def gap_model() -> GapModel:
     cross_validated[known] = fit.loo_predicted
     return GapModel(
         tight_binding=tb,
-        features=features,
         fit=fit,
         measured_300K_eV=measured,
         estimate_300K_eV=features @ fit.coefficients,

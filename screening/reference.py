@@ -29,6 +29,8 @@ from pathlib import Path
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
+from screening.structure import STRUCTURES
+
 SEED_DATA_ENV = "BONDGAP_SEED_DATA"
 """Environment variable that overrides the seed-data directory."""
 
@@ -54,8 +56,6 @@ BOWING_COLUMNS = (
 )
 ELASTIC_COLUMNS = ("formula", "c11_GPa", "c12_GPa", "c44_GPa", "source", "from_memory", "note")
 
-STRUCTURES = ("diamond", "zincblende", "wurtzite", "rocksalt", "other")
-"""Ambient structures a compound row may name."""
 
 COORDINATIONS = ("fourfold", "sixfold")
 GAP_KINDS = ("direct", "indirect", "semimetal")
