@@ -39,7 +39,8 @@ def test_review_flow_filter_shortlist_note_compare_export(page: Page, live_serve
     note = "=keep: lattice-matched to InP"
     row = page.locator("#candidates tr[data-formula='InP']")
     row.locator("textarea").fill(note)
-    row.locator("button", has_text="Save").click()
+    with page.expect_navigation():  # the form posts and redirects
+        row.locator("button", has_text="Save").click()
     expect(page.locator("#candidates tr[data-formula='InP'] textarea")).to_have_value(note)
 
     # Save the conditions they are chosen under: on GaAs.

@@ -70,7 +70,8 @@ def test_notes_with_markup_are_shown_as_text(page: Page, live_server: str) -> No
     page.click("#add-items button[type=submit]")
     row = page.locator("#candidates tr[data-formula='InP']")
     row.locator("textarea").fill(PAYLOAD + " (edited)")
-    row.locator("button", has_text="Save").click()
+    with page.expect_navigation():  # the form posts and redirects; reload only after that
+        row.locator("button", has_text="Save").click()
     page.reload()
     expect(page.locator("#shortlist-note")).to_have_text(PAYLOAD)
     expect(page.locator("#candidates tr[data-formula='InP'] textarea")).to_have_value(
