@@ -61,7 +61,7 @@ def _read(conn: sqlite3.Connection) -> FileContents:
     if VERSION_TABLE in tables:
         try:
             revisions = tuple(
-                str(v) for (v,) in conn.execute(f"SELECT version_num FROM {VERSION_TABLE} LIMIT 3")
+                str(v) for (v,) in conn.execute("SELECT version_num FROM alembic_version LIMIT 3")
             )
         except sqlite3.Error:  # a table of that name with other columns: not alembic's
             revisions = ("?",)

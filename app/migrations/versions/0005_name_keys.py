@@ -32,6 +32,7 @@ depends_on: str | Sequence[str] | None = None
 
 _TABLES: tuple[tuple[str, int], ...] = (("user_substrates", 40), ("shortlists", 80))
 """Tables with a user-given name, and the name column's length."""
+_SHORTLISTS = sa.table("shortlists", sa.column("substrate"))
 
 
 def _free_name(name: str, length: int, used: set[str]) -> tuple[str, str]:
@@ -79,17 +80,18 @@ def upgrade() -> None:
                 "name_key", sa.String(length=length * KEY_GROWTH), nullable=False, server_default=""
             ),
         )
-        rows = conn.execute(sa.text(f"SELECT id, name FROM {table}")).all()
+        named = sa.table(table, sa.column("id"), sa.column("name"), sa.column("name_key"))
+        rows = [(row.id, row.name) for row in conn.execute(sa.select(named.c.id, named.c.name))]
         names = dict(rows)
         for row_id, (name, key) in distinct_names(rows, length).items():
             conn.execute(
-                sa.text(f"UPDATE {table} SET name = :name, name_key = :key WHERE id = :id"),
-                {"name": name, "key": key, "id": row_id},
+                sa.update(named).where(named.c.id == row_id).values(name=name, name_key=key)
             )
             if table == "user_substrates" and name != names[row_id]:
                 conn.execute(
-                    sa.text("UPDATE shortlists SET substrate = :new WHERE substrate = :old"),
-                    {"new": name, "old": names[row_id]},
+                    sa.update(_SHORTLISTS)
+                    .where(_SHORTLISTS.c.substrate == names[row_id])
+                    .values(substrate=name)
                 )
         op.create_index(f"uq_{table}_name_key", table, ["name_key"], unique=True)
 
