@@ -7,7 +7,6 @@ read-only-ness comes from the immutable attribute (`chattr +i`, which binds root
 child process that gave up root's power to override file modes.
 """
 
-import hashlib
 import os
 import shutil
 import sqlite3
@@ -21,7 +20,7 @@ import pytest
 
 from app.cli import main
 from app.store import StoreError, open_store
-from tests.app.test_old_database import without_read_override
+from tests.app.test_old_database import sha256, without_read_override
 from tests.conftest import REPO_ROOT
 
 COMMANDS = (
@@ -32,10 +31,6 @@ COMMANDS = (
     ["show", "GaAs"],
 )
 """Every command that opens the database, one of each kind."""
-
-
-def sha256(path: Path) -> str:
-    return hashlib.sha256(path.read_bytes()).hexdigest()
 
 
 def execute(db: Path, *statements: str) -> None:
