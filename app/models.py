@@ -16,18 +16,36 @@ from sqlalchemy import (
     DateTime,
     Float,
     ForeignKey,
+    Index,
     Integer,
     String,
     Text,
     UniqueConstraint,
 )
-from sqlalchemy.orm import DeclarativeBase, Mapped, mapped_column
+from sqlalchemy.orm import DeclarativeBase, Mapped, mapped_column, validates
 
 import screening
+from app.names import KEY_GROWTH, name_key
 
 
 class Base(DeclarativeBase):
     """Declarative base of every table; `Base.metadata` is what the migrations must match."""
+
+
+class NamedRow:
+    """A row with a user-given `name` and its `name_key` (revision 0005, `app.names`).
+
+    Setting the name sets the key, so every write through the models stores both; the unique
+    index on `name_key` refuses a second name that folds to the same key.
+    """
+
+    name: Mapped[str]
+    name_key: Mapped[str]
+
+    @validates("name")
+    def _set_name_key(self, _field: str, value: str) -> str:
+        self.name_key = name_key(value)
+        return value
 
 
 class StoreMeta(Base):
@@ -82,7 +100,7 @@ class CompoundResult(Base):
 
 
 
-class UserSubstrate(Base):
+class UserSubstrate(NamedRow, Base):
     """A substrate of the user's own (revision 0003), beside the built-in table.
 
     `structure` is "cubic", "hexagonal" or one of the engine's substrate structures
@@ -92,10 +110,12 @@ class UserSubstrate(Base):
     """
 
     __tablename__ = "user_substrates"
-    __table_args__ = (UniqueConstraint("name", name="uq_user_substrates_name"),)
+    __table_args__ = (UniqueConstraint("name", name="uq_user_substrates_name"),
+                      Index("uq_user_substrates_name_key", "name_key", unique=True))
 
     id: Mapped[int] = mapped_column(Integer, primary_key=True)
     name: Mapped[str] = mapped_column(String(40))
+    name_key: Mapped[str] = mapped_column(String(40 * KEY_GROWTH), server_default="")
     structure: Mapped[str] = mapped_column(String(16))
     a_angstrom: Mapped[float] = mapped_column(Float)
     c_angstrom: Mapped[float | None] = mapped_column(Float)
@@ -153,7 +173,7 @@ def row_values(report: dict[str, Any]) -> dict[str, Any]:
     }
 
 
-class Shortlist(Base):
+class Shortlist(NamedRow, Base):
     """A shortlist of candidates (revision 0004), with the conditions it was chosen under.
 
     `substrate` names a built-in or user substrate (None: none chosen), `temperature_K` is the
@@ -162,10 +182,12 @@ class Shortlist(Base):
     """
 
     __tablename__ = "shortlists"
-    __table_args__ = (UniqueConstraint("name", name="uq_shortlists_name"),)
+    __table_args__ = (UniqueConstraint("name", name="uq_shortlists_name"),
+                      Index("uq_shortlists_name_key", "name_key", unique=True))
 
     id: Mapped[int] = mapped_column(Integer, primary_key=True)
     name: Mapped[str] = mapped_column(String(80))
+    name_key: Mapped[str] = mapped_column(String(80 * KEY_GROWTH), server_default="")
     note: Mapped[str] = mapped_column(Text, server_default="")
     substrate: Mapped[str | None] = mapped_column(String(40))
     temperature_K: Mapped[float] = mapped_column(Float, server_default="300.0")

@@ -3,8 +3,10 @@
 Every change is one write transaction (`app.writes.writing`): checked in full first, then
 written whole or not at all. Candidates are normalised formulas of catalogue binaries or alloy
 compositions (`screening.alloy_report.normalise_material`), checked to have a report before
-they are stored. Names are unique ignoring case. The functions take keyword arguments only
-and raise `QueryError` subclasses with one line for anything the user can fix.
+they are stored. Names are unique, and found, by one folding rule (`app.names`: Unicode case
+folding and canonical equivalence), compared on the stored `name_key`. The functions take
+keyword arguments only and raise `QueryError` subclasses with one line for anything the user
+can fix.
 """
 
 from __future__ import annotations
@@ -17,6 +19,7 @@ from sqlalchemy.orm import Session
 
 from app.conditions import Conditions
 from app.models import Shortlist, ShortlistItem
+from app.names import name_key
 from app.params import QueryError
 from app.shortlist_checks import NAME_LENGTH, check_formula, check_name, check_note
 from app.writes import utc_now, writing
@@ -39,7 +42,7 @@ class ShortlistConflict(QueryError):
 
 def get_shortlist(session: Session, *, shortlist_id: int | None = None,
                   name: str | None = None) -> Shortlist:
-    """One shortlist by id or by name (ignoring case).
+    """One shortlist by id or by name (folded by `app.names.name_key`).
 
     Raises:
         ShortlistNotFound: Naming what was asked for.
@@ -49,8 +52,7 @@ def get_shortlist(session: Session, *, shortlist_id: int | None = None,
         what = f"id {shortlist_id}"
     else:
         wanted = str(name or "").strip()
-        found = session.scalar(select(Shortlist).where(func.lower(Shortlist.name)
-                                                       == wanted.lower()))
+        found = session.scalar(select(Shortlist).where(Shortlist.name_key == name_key(wanted)))
         what = f"name {wanted[:NAME_LENGTH]!r}"
     if found is None:
         raise ShortlistNotFound(f"no shortlist with {what}")
@@ -95,10 +97,10 @@ def all_shortlists(session: Session) -> list[dict[str, Any]]:
 
 
 def _name_free(session: Session, name: str, own_id: int | None = None) -> None:
-    stmt = select(Shortlist.id).where(func.lower(Shortlist.name) == name.lower())
-    taken = session.scalar(stmt)
-    if taken is not None and taken != own_id:
-        raise ShortlistConflict(f"a shortlist named {name!r} already exists; choose another name")
+    taken = session.scalar(select(Shortlist).where(Shortlist.name_key == name_key(name)))
+    if taken is not None and taken.id != own_id:
+        raise ShortlistConflict(f"a shortlist named {taken.name!r} already exists; choose "
+                                "another name")
 
 
 def _flush_unique(session: Session, name: str) -> None:

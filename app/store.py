@@ -161,18 +161,24 @@ def open_store(db_path: Path, **refresh_options: Any) -> sessionmaker:
         A `sessionmaker` bound to the file's engine.
 
     Raises:
-        StoreError: The file is a folder, unreadable, not SQLite or damaged (it is left as it
-            was: `app.db_file`), or it was written by a newer version of bondgap.
+        StoreError: The file is a folder, unreadable, not SQLite, damaged, read-only, another
+            program's database or a newer bondgap's (it is left as it was, checked read-only
+            first: `app.db_file`).
     """
     from app.db_file import check_database_file
     from app.migrations import upgrade_to_head
 
     check_database_file(db_path)
+    engine = None
     try:
         engine = make_engine(db_path)
         upgrade_to_head(engine)
         refresh_results(engine, **refresh_options)
-    except (DBAPIError, OSError) as exc:
-        reason = getattr(exc, "orig", None) or exc
-        raise StoreError(f"cannot use database {db_path}: {reason}") from exc
+    except BaseException as exc:
+        if engine is not None:
+            engine.dispose()  # close every connection: SQLite removes its -wal and -shm
+        if isinstance(exc, (DBAPIError, OSError)):
+            reason = getattr(exc, "orig", None) or exc
+            raise StoreError(f"cannot use database {db_path}: {reason}") from exc
+        raise
     return sessionmaker(engine, expire_on_commit=False)

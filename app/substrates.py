@@ -3,7 +3,8 @@
 One place for the page, the API and the CLI: `substrate_rows` lists both kinds,
 `resolve_substrate` turns a name into the engine's `SubstrateSpec` (the finder's and the
 composition page's `on=`), `add_substrate` checks and stores one of the user's, and
-`delete_substrate` removes one. Built-in names can be neither added nor deleted.
+`delete_substrate` removes one. Built-in names can be neither added nor deleted. Names are
+unique, and found, by one folding rule (`app.names`), on the stored `name_key` of the user's.
 """
 
 from __future__ import annotations
@@ -12,11 +13,12 @@ import math
 import re
 from typing import Any
 
-from sqlalchemy import delete, select
+from sqlalchemy import select
 from sqlalchemy.exc import IntegrityError
 from sqlalchemy.orm import Session
 
 from app.models import UserSubstrate
+from app.names import name_key
 from app.params import QueryError
 from app.text_rules import plain_text
 from app.writes import utc_now, writing
@@ -61,8 +63,9 @@ def _number(value: Any, name: str, low: float, high: float) -> float:
 
 
 def _built_in_name(name: str) -> str | None:
-    """The built-in substrate of that name, ignoring case, or None."""
-    return next((b for b in substrates() if b.lower() == name.lower()), None)
+    """The built-in substrate of that name (folded by `app.names.name_key`), or None."""
+    key = name_key(name)
+    return next((b for b in substrates() if name_key(b) == key), None)
 
 
 def check_substrate(*, name: str, structure: str, a_angstrom: Any,
@@ -100,13 +103,11 @@ def _user_spec(row: UserSubstrate) -> SubstrateSpec:
 
 
 def _user_row(session: Session, name: str) -> UserSubstrate | None:
-    rows = session.scalars(select(UserSubstrate)).all()
-    exact = [r for r in rows if r.name == name]
-    return (exact or [r for r in rows if r.name.lower() == name.lower()] or [None])[0]
+    return session.scalar(select(UserSubstrate).where(UserSubstrate.name_key == name_key(name)))
 
 
 def resolve_substrate(session: Session | None, name: str) -> SubstrateSpec:
-    """The engine's substrate for a built-in name or one of the user's (case-insensitive).
+    """The engine's substrate for a built-in name or one of the user's (`app.names` folding).
 
     Raises:
         UnknownSubstrateError: Naming the built-in substrates and the user's.
@@ -159,8 +160,9 @@ def add_substrate(session: Session, **values: Any) -> dict[str, Any]:
     """
     clean = check_substrate(**values)
     with writing(session):
-        if _user_row(session, clean["name"]) is not None:
-            raise SubstrateConflict(f"you already have a substrate named {clean['name']!r}; "
+        same = _user_row(session, clean["name"])
+        if same is not None:
+            raise SubstrateConflict(f"you already have a substrate named {same.name!r}; "
                                     "delete it first or choose another name")
         row = UserSubstrate(**clean, created_at=utc_now())
         session.add(row)
@@ -172,16 +174,19 @@ def add_substrate(session: Session, **values: Any) -> dict[str, Any]:
     return _row_dict(row)
 
 
-def delete_substrate(session: Session, name: str) -> None:
-    """Delete one of the user's substrates (exact name).
+def delete_substrate(session: Session, name: str) -> str:
+    """Delete one of the user's substrates (named by `app.names` folding); return its name.
 
     Raises:
         QueryError: A built-in name. SubstrateNotFound: no such substrate of the user's.
     """
-    built_in = _built_in_name(name.strip())
+    clean = name.strip()
+    built_in = _built_in_name(clean)
     if built_in:
         raise QueryError(f"{built_in!r} is a built-in substrate and cannot be deleted")
     with writing(session):
-        done = session.execute(delete(UserSubstrate).where(UserSubstrate.name == name))
-        if not done.rowcount:
-            raise SubstrateNotFound(f"you have no substrate named {name[:50]!r}")
+        row = _user_row(session, clean)
+        if row is None:
+            raise SubstrateNotFound(f"you have no substrate named {clean[:50]!r}")
+        session.delete(row)
+        return row.name

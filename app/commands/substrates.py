@@ -65,8 +65,7 @@ def run(args: argparse.Namespace) -> int:
                   f"{row['a_angstrom']:g} A)")
             return 0
         if args.action == "delete":
-            delete_substrate(session, args.name)
-            print(f"deleted substrate {args.name}")
+            print(f"deleted substrate {delete_substrate(session, args.name)}")
             return 0
         rows = substrate_rows(session)
     if getattr(args, "json", False):

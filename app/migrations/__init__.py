@@ -35,8 +35,18 @@ def head_revision() -> str:
     return head
 
 
+def known_revisions() -> frozenset[str]:
+    """Every revision id in `versions/` (a database at any of them can be migrated)."""
+    script = ScriptDirectory.from_config(alembic_config())
+    return frozenset(s.revision for s in script.walk_revisions())
+
+
 def upgrade_to_head(engine: Engine) -> None:
     """Migrate the database to the newest schema, in one transaction holding the write lock.
+
+    `app.db_file.check_database_file` has refused a file of an unknown revision before this
+    runs (read-only, so the file is not changed); the check here only catches a file changed
+    in between.
 
     Raises:
         StoreError: The database carries a revision this bondgap does not know (it was
@@ -53,7 +63,7 @@ def upgrade_to_head(engine: Engine) -> None:
                 command.upgrade(alembic_config(conn), "head")
             except CommandError as exc:
                 raise StoreError(
-                    f"database {engine.url.database} has a schema this bondgap does not know "
-                    f"({exc}); it was probably written by a newer version: upgrade bondgap or "
-                    "choose another file with --db"
+                    f"cannot use database {engine.url.database}: its schema revision is "
+                    "unknown to this bondgap (it was probably written by a newer version); "
+                    "upgrade bondgap or choose another file with --db or BONDGAP_DB"
                 ) from exc

@@ -75,10 +75,9 @@ def create_substrate(session: SessionDep, body: SubstrateIn) -> dict[str, Any]:
 def remove_substrate(session: SessionDep, name: str) -> dict[str, Any]:
     """Delete one of your substrates (built-in ones cannot be deleted)."""
     try:
-        delete_substrate(session, name)
+        return {"deleted": delete_substrate(session, name)}
     except BondgapInputError as exc:
         raise HTTPException(_status(exc), str(exc)) from exc
-    return {"deleted": name}
 
 
 def _page(request: Request, session: SessionDep, *, status: int = 200, error: str | None = None,
@@ -116,8 +115,8 @@ def add_from_form(request: Request, session: SessionDep, name: Annotated[str, Fo
 def delete_from_form(request: Request, session: SessionDep, name: str) -> Response:
     """Delete one of the user's substrates from the page."""
     try:
-        delete_substrate(session, name)
+        deleted = delete_substrate(session, name)
     except BondgapInputError as exc:
         return _page(request, session, status=_status(exc), error=str(exc))
-    return RedirectResponse("/substrates?" + urlencode({"done": f"deleted {name}"}),
+    return RedirectResponse("/substrates?" + urlencode({"done": f"deleted {deleted}"}),
                             status_code=303)

@@ -43,7 +43,8 @@ def test_a_database_of_the_previous_schema_migrates_on_start_and_keeps_its_data(
     db = tmp_path / "bondgap.db"
     shutil.copyfile(FIXTURE, db)
     assert query(db, "SELECT version_num FROM alembic_version") == [("0003",)]
-    substrates = query(db, "SELECT * FROM user_substrates ORDER BY id")
+    columns_0003 = "id, name, structure, a_angstrom, c_angstrom, note, created_at"
+    substrates = query(db, f"SELECT {columns_0003} FROM user_substrates ORDER BY id")
     assert len(substrates) == 2
 
     settings = Settings(db_path=db, allowed_hosts=(TEST_HOST,))
@@ -60,7 +61,9 @@ def test_a_database_of_the_previous_schema_migrates_on_start_and_keeps_its_data(
         assert client.post(url, headers=token, json={"formulas": ["InP"]}).status_code == 201
 
     assert query(db, "SELECT version_num FROM alembic_version") == [(head_revision(),)]
-    assert query(db, "SELECT * FROM user_substrates ORDER BY id") == substrates
+    assert query(db, f"SELECT {columns_0003} FROM user_substrates ORDER BY id") == substrates
+    assert query(db, "SELECT name_key FROM user_substrates ORDER BY id") == [
+        ("ingaas buffer",), ("my aln template",)]
     assert query(db, "SELECT value FROM store_meta WHERE key = 'model_version'") == [
         (screening.MODEL_VERSION,)]
     assert {f for (f,) in query(db, "SELECT formula FROM compound_results")} == set(
