@@ -63,12 +63,25 @@ async def _validation_error(request: Request, exc: Exception) -> Response:
 async def _busy_error(request: Request, exc: Exception) -> Response:
     # The write lock stayed taken past the busy timeout (another program holds the file).
     assert isinstance(exc, OperationalError)
-    if "locked" in str(exc.orig) or "busy" in str(exc.orig):
+    reason = str(exc.orig)
+    if "locked" in reason or "busy" in reason:
         response = _error(request, 503, "the database is busy (another program is writing "
                                         "to it); nothing was changed: try again")
         response.headers["Retry-After"] = "1"
         return response
+    for words, why in _UNWRITABLE:
+        if words in reason:
+            return _error(request, 503, f"the database file cannot be written now ({why}); "
+                                        "nothing was changed: fix the file, then restart")
     raise exc
+
+
+_UNWRITABLE: tuple[tuple[str, str], ...] = (
+    ("readonly", "it became read-only while the server runs"),
+    ("disk is full", "the disk is full"),
+    ("disk I/O error", "the disk reported an error"),
+)
+"""SQLite's reasons a write can fail after start, and how we say them."""
 
 
 async def _http_error(request: Request, exc: Exception) -> Response:

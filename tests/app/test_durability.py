@@ -9,6 +9,7 @@ from concurrent.futures import ThreadPoolExecutor
 from pathlib import Path
 
 import httpx
+import pytest
 
 from app.db_file import check_database_file
 from app.store import open_store
@@ -129,3 +130,26 @@ def test_a_lock_held_past_the_busy_timeout_is_a_clear_503(client, monkeypatch) -
     answer = client.post("/api/shortlists", json={"name": "Later"})
     assert answer.status_code == 503 and answer.headers["retry-after"] == "1"
     assert answer.json()["detail"].startswith("the database is busy")
+
+
+@pytest.mark.parametrize(("reason", "said"), [
+    ("attempt to write a readonly database", "read-only"),
+    ("database or disk is full", "disk is full"),
+    ("disk I/O error", "disk reported an error"),
+])
+def test_a_file_that_stops_taking_writes_is_a_one_line_503(client, monkeypatch, reason,
+                                                           said) -> None:
+    # SQLite's own reasons (sqlite3 result codes SQLITE_READONLY, SQLITE_FULL, SQLITE_IOERR);
+    # the file turning read-only under a running server cannot be staged for root here.
+    from sqlalchemy.exc import OperationalError
+
+    from app import shortlists
+
+    def refused(*args, **kwargs):
+        raise OperationalError("INSERT", {}, sqlite3.OperationalError(reason))
+
+    monkeypatch.setattr(shortlists, "create_shortlist", refused)
+    answer = client.post("/api/shortlists", json={"name": "Later"})
+    assert answer.status_code == 503
+    detail = answer.json()["detail"]
+    assert said in detail and "nothing was changed" in detail and "\n" not in detail
