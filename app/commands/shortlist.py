@@ -23,6 +23,7 @@ from app.conditions import Conditions
 from app.config import Settings, add_db_argument
 from app.exports import shortlist_csv, shortlist_json, write_cells
 from app.imports import MAX_BYTES, check_size, import_measurements
+from app.numbers import terminal
 
 
 def _conditions_options(parser: argparse.ArgumentParser) -> None:
@@ -144,7 +145,8 @@ def render_compare(rows: list[Any], formulas: list[str]) -> str:
     """The comparison as an aligned text table; * marks the best cell of a row."""
     head = ["property", *formulas, "best"]
     body = [[f"{r.label}" + (f" ({r.unit})" if r.unit else ""),
-             *[c.text + (" *" if i in r.best else "") for i, c in enumerate(r.cells)], r.rule]
+             *[terminal(c.text) + (" *" if i in r.best else "") for i, c in enumerate(r.cells)],
+             r.rule]
             for r in rows]
     widths = [max(len(x[i]) for x in [head, *body]) for i in range(len(head))]
     return "\n".join("  ".join(v.ljust(w) for v, w in zip(line, widths, strict=True)).rstrip()
