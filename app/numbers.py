@@ -79,6 +79,12 @@ def rounded(value: float, decimals: int) -> float:
     return float(_quantize(Decimal(repr(float(value))), decimals)) + 0.0
 
 
+def as_written(value: float, decimals: int) -> int | float:
+    """The value rounded to `decimals` as a CSV number: an int when no decimal is kept."""
+    number = rounded(value, decimals)
+    return int(number) if decimals <= 0 else number
+
+
 def fixed(value: float | None, decimals: int, *, signed: bool = False) -> str:
     """The value with `decimals` decimals ("—" for none); a rounded zero has no sign.
 
@@ -148,13 +154,6 @@ def stated_decimals(value: float) -> int:
     return max(0, -int(exponent))
 
 
-def significant(value: float, digits: int) -> float:
-    """The value rounded to `digits` significant digits (never -0.0)."""
-    if not _finite(value) or value == 0:
-        return value + 0.0
-    return rounded(value, digits - 1 - math.floor(math.log10(abs(value))))
-
-
 def _significant_text(value: float, digits: int) -> str:
     places = digits - 1 - math.floor(math.log10(abs(value))) if value else 0
     return fixed(value, places)
@@ -185,7 +184,9 @@ def thickness_number(value_nm: float | None) -> float | None:
     """
     if value_nm is None or not _finite(value_nm) or value_nm > THICKNESS_BOUND_NM:
         return None
-    return significant(value_nm, THICKNESS_DIGITS)
+    if value_nm == 0:
+        return 0
+    return as_written(value_nm, THICKNESS_DIGITS - 1 - math.floor(math.log10(abs(value_nm))))
 
 
 def terminal(text: str) -> str:
