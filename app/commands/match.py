@@ -73,7 +73,8 @@ def render_text(payload: dict[str, Any]) -> str:
         gap = m["band_gap_eV"]
         places = 3 if gap is None else round_estimate(gap, m["band_gap_uncertainty_eV"])[2]
         rows.append((
-            m["formula"], f"{m['lattice_constant_angstrom']:.4f}", f"{m['mismatch']:+.2e}",
+            m["formula"], f"{m['lattice_constant_angstrom']:.4f}",
+            f"{m['mismatch']:+.2e}" if m["mismatch"] else "0",
             "-" if gap is None else fixed(gap, places),
             "-" if m["band_gap_uncertainty_eV"] is None else fixed(
                 m["band_gap_uncertainty_eV"], places),

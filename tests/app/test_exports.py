@@ -8,8 +8,10 @@ import pandas
 import pytest
 from pymatgen.core import Structure
 
+from app.candidates import Candidate
 from app.export_columns import CSV_COLUMNS
 from app.exports import neutralise
+from screening.alloy_report import alloy_report
 
 pytestmark = pytest.mark.filterwarnings(  # pymatgen rounds 0.33333333 to 1/3 when reading
     "ignore:Issues encountered while parsing CIF.*rounded to ideal values:UserWarning"
@@ -123,6 +125,17 @@ def test_alloys_name_their_lattice_and_eps_sources(client, shortlist: str) -> No
     # A ternary cites the ternary bowing it uses, not the quaternary (Glisson) scheme.
     assert "Glisson" not in alloy["band_gap_source"]
     assert "Vurgaftman" in alloy["band_gap_source"]
+
+
+def test_an_alloy_without_a_virtual_crystal_eps_inf_says_so() -> None:
+    report = alloy_report("Hg0.7Cd0.3Te")  # HgTe has no measured eps_inf (seed data)
+    hgcdte = Candidate("Hg0.7Cd0.3Te", "alloy", "", 1, "", report)
+    cells = {column.name: column.get(hgcdte) for column in CSV_COLUMNS}
+    assert cells["eps_inf"] == "not available"
+    assert cells["eps_inf_source"].startswith("not available: ") and "HgTe" in cells[
+        "eps_inf_source"]
+    assert "Vegard" in cells["lattice_constant_source"] and "CdTe:" in cells[
+        "lattice_constant_source"]
 
 
 def test_csv_critical_thickness_follows_the_page_rule(client, shortlist: str) -> None:

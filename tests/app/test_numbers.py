@@ -51,8 +51,20 @@ def test_an_estimate_is_shown_to_its_error_bar(value, uncertainty, shown) -> Non
 
 @pytest.mark.parametrize(
     ("uncertainty", "decimals"),
-    [(0.69, 1), (0.12, 2), (0.354, 2), (0.355, 1), (0.96, 1), (514.0, -2), (3.0, 1), (4.0, 0),
-     (0.0, None), (-1.0, None), (math.nan, None), (math.inf, None)],
+    [
+        (0.69, 1),
+        (0.12, 2),
+        (0.354, 2),
+        (0.355, 1),
+        (0.96, 1),
+        (514.0, -2),
+        (3.0, 1),
+        (4.0, 0),
+        (0.0, None),
+        (-1.0, None),
+        (math.nan, None),
+        (math.inf, None),
+    ],
 )
 def test_uncertainty_decimals(uncertainty, decimals) -> None:
     assert uncertainty_decimals(uncertainty) == decimals
@@ -77,8 +89,14 @@ def test_a_rounded_zero_has_no_sign(value, signed) -> None:
 
 @pytest.mark.parametrize(
     ("value", "decimals", "signed", "shown"),
-    [(-0.0005, 3, False, "-0.001"), (0.0005, 3, True, "+0.001"), (-1.318e-2, 3, True, "-0.013"),
-     (None, 3, False, "—"), (math.nan, 2, False, "—"), (954.3, -2, False, "1000")],
+    [
+        (-0.0005, 3, False, "-0.001"),
+        (0.0005, 3, True, "+0.001"),
+        (-1.318e-2, 3, True, "-0.013"),
+        (None, 3, False, "—"),
+        (math.nan, 2, False, "—"),
+        (954.3, -2, False, "1000"),
+    ],
 )
 def test_fixed(value, decimals, signed, shown) -> None:
     assert fixed(value, decimals, signed=signed) == shown
