@@ -15,6 +15,7 @@ from sqlalchemy.orm import Session
 
 from app import queries, views
 from app.finder_chart import plane_chart
+from app.numbers import fixed, thickness_number, thickness_text
 from app.substrates import resolve_substrate
 from app.views import Line, Section, wavelength_of
 from screening.alloys import parse_system
@@ -93,13 +94,16 @@ def vca_sections(report: dict[str, Any]) -> list[Section]:
 
 def _small(value: float | None) -> str | None:
     """A strain or mismatch as shown: "-1.318e-04 (-0.0132 %)"."""
-    return None if value is None else f"{value:+.3e} ({value * 100:+.4f} %)"
+    return None if value is None else f"{value:+.3e} ({fixed(value * 100, 4, signed=True)} %)"
 
 
 def epitaxy_section(block: dict[str, Any]) -> Section:
     """Mismatch, strain and critical thickness on the chosen substrate."""
     geometry = block["geometry"]
     h_c = block["critical_thickness_nm"]
+    matched = "lattice-matched" in block["critical_thickness_note"]
+    shown = (thickness_text(h_c, matched=matched) if h_c is not None or matched
+             else block["critical_thickness_note"])
     lines = (
         Line("Substrate lattice constant (matched)", f"{block['substrate_a_angstrom']:.4f}", "Å",
              block["substrate_note"] or "substrate table", "built-in table or yours",
@@ -112,8 +116,8 @@ def epitaxy_section(block: dict[str, Any]) -> Section:
         Line("Perpendicular strain (001)", _small(block["perpendicular_strain_001"]), "",
              "-2 ν/(1 - ν) × in-plane strain", "elastic constants (Vegard)",
              key="perpendicular_strain"),
-        Line("Critical thickness h_c", h_c if h_c is not None else block[
-            "critical_thickness_note"], "nm" if h_c is not None else "",
+        Line("Critical thickness h_c", shown,
+             "nm" if thickness_number(h_c) is not None else "",
              f"{block['critical_thickness_note']}; geometry {geometry['name']}: "
              f"{geometry['description']}"
              + (" (Poisson ratio assumed)" if block["poisson_assumed"] else ""),

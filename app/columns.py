@@ -8,6 +8,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Any, Literal
 
+from app.numbers import estimate_text, fixed
 from screening.registry import BY_KEY
 
 
@@ -45,21 +46,21 @@ class Column:
         """The value as the page and the text table show it (an em dash for no value)."""
         if value is None:
             return "—"
-        return f"{value:.{self.digits}f}" if self.kind == "number" else str(value)
+        return fixed(value, self.digits) if self.kind == "number" else str(value)
 
     def cell(self, row: dict[str, Any]) -> tuple[str, str | None]:
         """The value of `row` as shown, with its uncertainty where estimated, and its mark.
 
         Returns:
-            (text, mark): e.g. ("2.31 ± 0.96", "est."), ("1.424", "m"), ("indirect", "model");
-            the mark is None where the column has no source.
+            (text, mark): e.g. ("2.3 ± 1.0", "est.") (rounded by `app.numbers`), ("1.424",
+            "m"), ("indirect", "model"); the mark is None where the column has no source.
         """
         value = row.get(self.key)
-        text = self.format(value)
         source = row.get(self.source_key) if self.source_key else None
         uncertainty = row.get(self.uncertainty_key) if self.uncertainty_key else None
-        if value is not None and source != "measured" and uncertainty is not None:
-            text += f" ± {uncertainty:.2f}"
+        text = (estimate_text(value, uncertainty, self.digits)
+                if value is not None and source != "measured" and uncertainty is not None
+                else self.format(value))
         return text, (SOURCE_MARKS.get(source, source) if value is not None and source else None)
 
 

@@ -17,6 +17,7 @@ from typing import Any
 
 from app.candidates import Candidate
 from app.conditions import Conditions
+from app.numbers import estimate_text, fixed, thickness_text, uncertainty_text
 from app.params import QueryError
 from app.views import dig
 from screening.hazards import ROHS_SOURCE
@@ -50,7 +51,7 @@ class Row:
 
 
 def _num(value: Any, digits: int) -> str:
-    return "—" if value is None else f"{value:.{digits}f}"
+    return fixed(value, digits)
 
 
 def _measured_source(c: Candidate, key: str) -> str:
@@ -62,9 +63,7 @@ def _measured_source(c: Candidate, key: str) -> str:
 def _gap(c: Candidate, _: Conditions) -> Cell:
     gap = c.report.get("band_gap") or {}
     value, source = gap.get("value_eV"), gap.get("value_source") or ""
-    text = _num(value, 3)
-    if value is not None and source != "measured" and gap.get("uncertainty_eV") is not None:
-        text += f" ± {gap['uncertainty_eV']:.2f}"
+    text = estimate_text(value, None if source == "measured" else gap.get("uncertainty_eV"))
     origin = (_measured_source(c, "band_gap_eV") if source == "measured"
               else gap.get("route") or "calibrated sp3 estimate; ± leave-one-out RMS of family")
     return Cell(value, text, f"{source} at {gap.get('temperature_K', 300):g} K", origin,
@@ -101,13 +100,14 @@ def _layer_cell(c: Candidate, key: str, text: Callable[[Any], str]) -> Cell:
 
 
 def _mismatch(c: Candidate, _: Conditions) -> Cell:
-    return _layer_cell(c, "mismatch", lambda v: "—" if v is None else f"{100 * v:+.3f}")
+    return _layer_cell(c, "mismatch", lambda v: fixed(None if v is None else 100 * v, 3,
+                                                      signed=True))
 
 
 def _thickness(c: Candidate, _: Conditions) -> Cell:
-    cell = _layer_cell(c, "critical_thickness_nm", lambda v: _num(v, 1))
+    cell = _layer_cell(c, "critical_thickness_nm", thickness_text)
     if c.layer and cell.value is None and "lattice-matched" in cell.route:
-        return Cell(math.inf, "no limit", cell.route, cell.source)
+        return Cell(math.inf, thickness_text(math.inf), cell.route, cell.source)
     return cell
 
 
@@ -151,7 +151,7 @@ def _uncertainty(c: Candidate, _: Conditions) -> Cell:
     gap = c.report.get("band_gap") or {}
     measured = gap.get("value_source") == "measured"
     value = 0.0 if measured else gap.get("uncertainty_eV")
-    return Cell(value, "measured" if measured else _num(value, 2),
+    return Cell(value, "measured" if measured else uncertainty_text(value),
                 "leave-one-out RMS of the family (binaries) or propagated (alloys)", "")
 
 

@@ -1,14 +1,17 @@
-"""A shortlist for the review: CSV, JSON, and each candidate's crystal cell as CIF and POSCAR.
+"""A shortlist for the review: CSV with its README, JSON, and each candidate's crystal cell.
 
-CSV: UTF-8 with a byte-order mark (spreadsheet programs then read Å and ε correctly; read it
-back with the `utf-8-sig` codec), CRLF line ends. First a header block of two-cell rows whose
-first cell starts with `#` (tool, model version, export time, list name and note, conditions,
-units, where the values come from, the RoHS source, the caution), then one header row and one
-row per candidate. Units are in the column names (`band_gap_eV`, `critical_thickness_nm`);
-each measured value has a `*_source` column; the user's own values are in `yours_*` columns.
-Numbers are written as numbers (full precision, so they parse back exactly; a negative number
-stays a number); text cells that a spreadsheet would run as a formula (starting with `=`, `+`,
-`-`, `@`, tab or carriage return) get a leading `'`.
+CSV: the header row first, then one row per candidate, so spreadsheets, `pandas.read_csv` and
+`csv.reader` read it as it is. UTF-8 with a byte-order mark (spreadsheet programs then read Å
+and ε correctly; pandas skips it, and the `utf-8-sig` codec does too), CRLF line ends. Units
+are in the column names (`band_gap_eV`, `critical_thickness_nm`); each measured value has a
+`*_source` column; the user's own values are in `yours_*` columns. Numbers are written as
+numbers, rounded to their meaningful precision by `app.numbers` (full precision is in the JSON
+export); text cells that a spreadsheet would run as a formula get a leading `'`.
+
+Sidecar README (text): tool and model version, export time, the list's name and note, its
+conditions, the mismatch convention, the rounding rules, the RoHS source, the caution and what
+every column holds (from `app.export_columns`). The web export's zip holds both files;
+`bondgap shortlist export NAME --csv FILE` writes FILE and the README beside it.
 """
 
 from __future__ import annotations
@@ -17,8 +20,8 @@ import csv
 import io
 import json
 import math
+import unicodedata
 import zipfile
-from collections.abc import Callable
 from datetime import UTC, datetime
 from pathlib import Path
 from typing import Any
@@ -26,12 +29,19 @@ from typing import Any
 import screening
 from app.candidates import Candidate
 from app.conditions import Conditions
-from app.views import dig
+from app.export_columns import CSV_COLUMNS
+from app.numbers import THICKNESS_ABOVE, THICKNESS_MATCHED
 from screening.epitaxy import MISMATCH_CONVENTION
 from screening.hazards import CAUTION, ROHS_SOURCE
 
-FORMULA_TRIGGERS = ("=", "+", "-", "@", "\t", "\r")
-"""First characters that make a spreadsheet read a text cell as a formula."""
+FORMULA_TRIGGERS = ("=", "+", "-", "@", "\t", "\r", "\n", "\u2212")
+"""First characters that make a spreadsheet read a text cell as a formula (after NFKC, so the
+fullwidth and small forms count too; U+2212 is the minus sign)."""
+INVISIBLE = frozenset({"Cc", "Cf", "Zs", "Zl", "Zp"})
+"""Unicode categories skipped before the first visible character: controls, format
+characters (zero-width space, bidi marks), spaces and separators."""
+SIDECAR_SUFFIX = "-README.txt"
+"""The README beside an exported CSV: `review.csv` gets `review-README.txt`."""
 
 UNITS_LEGEND = (
     "columns ending _eV are in eV, _angstrom in angstrom, _nm in nm, _K in kelvin; "
@@ -44,10 +54,32 @@ SOURCES_LEGEND = (
     "estimate (calibrated model, with its uncertainty) or interpolated (alloys); yours_* "
     "columns hold your own imported values and their sources"
 )
+PRECISION_LEGEND = (
+    "an estimate or interpolated value is rounded to its uncertainty (uncertainty to 1 or 2 "
+    "significant digits: 2 when its leading digits are 100-354, else 1; the value to the same "
+    "decimal place; Particle Data Group rule, after JCGM 100:2008 section 7.2.6); measured "
+    "values as published; Vegard and virtual-crystal averages to their end points' decimals; "
+    "ionicity and polarity to 3 decimals, bond length to 4, mismatch and strain to 5; "
+    f"critical thickness to 3 significant digits, '{THICKNESS_MATCHED}' when lattice-matched "
+    f"and '{THICKNESS_ABOVE}' above 10 µm; the JSON export has every number at full precision"
+)
+
+
+def _visible_start(text: str) -> str:
+    """The text from its first visible character, NFKC-normalised (for the formula check)."""
+    for i, char in enumerate(text):
+        if unicodedata.category(char) not in INVISIBLE or char in "\t\r\n":
+            return unicodedata.normalize("NFKC", text[i:i + 4])
+    return ""
 
 
 def neutralise(value: Any) -> Any:
-    """A cell as written: numbers as numbers, text safe from formula evaluation."""
+    """A cell as written: numbers as numbers, text safe from formula evaluation.
+
+    Text whose first visible character (after leading spaces, zero-width and other invisible
+    format characters, NFKC-normalised so `＝`, `＋`, `－`, `＠` count) starts a formula, or
+    that starts with a tab, carriage return or line feed, gets a leading `'`.
+    """
     if value is None:
         return ""
     if isinstance(value, bool):
@@ -55,118 +87,78 @@ def neutralise(value: Any) -> Any:
     if isinstance(value, int | float):
         return value if math.isfinite(value) else ""
     text = str(value)
-    return "'" + text if text.startswith(FORMULA_TRIGGERS) else text
-
-
-def _source(c: Candidate, key: str) -> str | None:
-    item = dig(c.report, f"measured.{key}")
-    if not item:
-        return None
-    return str(item.get("source") or "") + (" (from memory)" if item.get("from_memory") else "")
-
-
-def _at(path: str) -> Callable[[Candidate], Any]:
-    return lambda c: dig(c.report, path)
-
-
-def _layer(key: str) -> Callable[[Candidate], Any]:
-    return lambda c: (c.layer or {}).get(key)
-
-
-def _yours(prop: str, key: str) -> Callable[[Candidate], Any]:
-    return lambda c: (c.yours.get(prop) or {}).get(key)
-
-
-CSV_COLUMNS: tuple[tuple[str, Callable[[Candidate], Any]], ...] = (
-    ("position", lambda c: c.position),
-    ("formula", lambda c: c.formula),
-    ("kind", lambda c: c.kind),
-    ("note", lambda c: c.note),
-    ("structure", _at("structure.observed")),
-    ("structure_source", _at("structure.source")),
-    ("temperature_K", _at("band_gap.temperature_K")),
-    ("band_gap_eV", _at("band_gap.value_eV")),
-    ("band_gap_route", _at("band_gap.value_source")),
-    ("band_gap_uncertainty_eV", lambda c: None if dig(c.report, "band_gap.value_source")
-     == "measured" else dig(c.report, "band_gap.uncertainty_eV")),
-    ("band_gap_source", lambda c: _source(c, "band_gap_eV") or dig(c.report, "band_gap.route")
-     or "calibrated sp3 estimate; uncertainty = leave-one-out RMS error of the family"),
-    ("band_gap_estimate_eV", _at("band_gap.estimate_eV")),
-    ("wavelength_nm", _at("band_gap.wavelength_nm")),
-    ("gap_kind", _at("band_gap.kind")),
-    ("gap_kind_route", _at("band_gap.kind_source")),
-    ("gap_kind_source", lambda c: _source(c, "gap_kind")),
-    ("lattice_constant_angstrom", _at("lattice_constant_angstrom")),
-    ("lattice_c_angstrom", _at("lattice_c_angstrom")),
-    ("lattice_constant_route", lambda c: c.report.get("lattice_route") or (
-        "measured" if c.report.get("lattice_constant_angstrom") is not None else None)),
-    ("lattice_constant_source", lambda c: _source(c, "lattice_a")),
-    ("bond_length_angstrom", _at("bond_length_used_angstrom")),
-    ("eps_inf", _at("measured.eps_inf.value")),
-    ("eps_inf_source", lambda c: _source(c, "eps_inf")),
-    ("ionicity_spectroscopic", _at("phillips.spectroscopic.ionicity")),
-    ("ionicity_predictive", _at("phillips.predictive.ionicity")),
-    ("polarity", _at("harrison.polarity")),
-    ("coordination_predicted", _at("coordination.predicted")),
-    ("coordination_observed", _at("coordination.observed")),
-    ("substrate", _layer("substrate")),
-    ("substrate_a_angstrom", _layer("substrate_a_angstrom")),
-    ("mismatch_fraction", _layer("mismatch")),
-    ("in_plane_strain", _layer("in_plane_strain")),
-    ("critical_thickness_nm", _layer("critical_thickness_nm")),
-    ("critical_thickness_note", _layer("critical_thickness_note")),
-    ("layer_not_computed", lambda c: c.layer_error),
-    ("toxic_elements", lambda c: " ".join(c.toxic)),
-    ("rohs_restricted", lambda c: " ".join(c.rohs)),
-    ("yours_lattice_a_angstrom", _yours("lattice_a", "value")),
-    ("yours_lattice_a_source", _yours("lattice_a", "source")),
-    ("yours_band_gap_eV", _yours("band_gap", "value")),
-    ("yours_band_gap_source", _yours("band_gap", "source")),
-    ("yours_eps_inf", _yours("eps_inf", "value")),
-    ("yours_eps_inf_source", _yours("eps_inf", "source")),
-)
-"""Header and value of every CSV column, in order."""
+    return "'" + text if _visible_start(text).startswith(FORMULA_TRIGGERS) else text
 
 
 def _stamp(now: datetime | None) -> str:
     return (now or datetime.now(UTC)).astimezone(UTC).isoformat(timespec="seconds")
 
 
-def shortlist_csv(shortlist: dict[str, Any], candidates: list[Candidate],
-                  conditions: Conditions, *, now: datetime | None = None) -> str:
-    """The CSV text of a list (the byte-order mark included).
+def shortlist_csv(candidates: list[Candidate]) -> str:
+    """The CSV text of a list's candidates (under its conditions): header row first.
 
-    Args:
-        shortlist: `app.shortlists.shortlist_dict` of the list.
-        candidates: Its candidates under its conditions.
-        conditions: Its conditions.
-        now: Export time (default: now, UTC).
+    The byte-order mark is included; the list's name, note and conditions are in the README.
     """
     out = io.StringIO()
     writer = csv.writer(out, lineterminator="\r\n")
-    substrate = conditions.substrate or "none"
-    header = (
-        ("tool", f"bondgap (engine model {screening.MODEL_VERSION})"),
-        ("model_version", screening.MODEL_VERSION),
-        ("exported_at", _stamp(now)),
-        ("shortlist", shortlist["name"]),
-        ("note", shortlist["note"]),
-        ("substrate", substrate),
-        ("temperature_K", conditions.temperature_K),
-        ("target", conditions.target_text()),
-        ("units", UNITS_LEGEND),
-        ("mismatch_convention", MISMATCH_CONVENTION),
-        ("sources", SOURCES_LEGEND),
-        ("rohs", f"rohs_restricted lists elements restricted by {ROHS_SOURCE}"),
-        ("caution", CAUTION),
-    )
-    writer.writerow(["# bondgap shortlist export"])
-    for key, value in header:
-        writer.writerow([f"# {key}", neutralise(value)])
-    writer.writerow([name for name, _ in CSV_COLUMNS])
+    writer.writerow([column.name for column in CSV_COLUMNS])
     for c in candidates:
-        writer.writerow([neutralise(get(c)) for _, get in CSV_COLUMNS])
+        writer.writerow([neutralise(column.get(c)) for column in CSV_COLUMNS])
     return "\ufeff" + out.getvalue()
+
+
+def _indented(text: str) -> str:
+    return "\n    ".join(text.splitlines()) or "(none)"
+
+
+def shortlist_readme(shortlist: dict[str, Any], conditions: Conditions, csv_name: str, *,
+                     now: datetime | None = None) -> str:
+    """The sidecar README of a CSV export: conditions, units, sources and every column.
+
+    Args:
+        shortlist: `app.shortlists.shortlist_dict` of the list.
+        conditions: Its conditions.
+        csv_name: File name of the CSV it describes.
+        now: Export time (default: now, UTC).
+    """
+    lines = [
+        f"About {csv_name}: a bondgap shortlist export",
+        "",
+        f"tool: bondgap (engine model {screening.MODEL_VERSION})",
+        f"model_version: {screening.MODEL_VERSION}",
+        f"exported_at: {_stamp(now)}",
+        f"shortlist: {shortlist['name']}",
+        f"note: {_indented(shortlist['note'])}",
+        f"substrate: {conditions.substrate or 'none'}",
+        f"temperature_K: {conditions.temperature_K:g}",
+        f"target: {conditions.target_text()}",
+        f"units: {UNITS_LEGEND}",
+        f"mismatch_convention: {MISMATCH_CONVENTION}",
+        f"sources: {SOURCES_LEGEND}",
+        f"precision: {PRECISION_LEGEND}",
+        f"rohs: rohs_restricted lists elements restricted by {ROHS_SOURCE}",
+        f"caution: {CAUTION}",
+        "",
+        "Columns (the CSV's header row, in order):",
+        *(f"  {column.name}: {column.about}" for column in CSV_COLUMNS),
+    ]
+    return "\n".join(lines) + "\n"
+
+
+def readme_path(csv_path: Path) -> Path:
+    """Where the README of a CSV written to `csv_path` goes (beside it)."""
+    return csv_path.with_name(csv_path.stem + SIDECAR_SUFFIX)
+
+
+def csv_zip(shortlist: dict[str, Any], candidates: list[Candidate], conditions: Conditions,
+            csv_name: str, *, now: datetime | None = None) -> bytes:
+    """The CSV and its README as one zip archive (the README named after the CSV)."""
+    buffer = io.BytesIO()
+    with zipfile.ZipFile(buffer, "w", zipfile.ZIP_DEFLATED) as archive:
+        archive.writestr(csv_name, shortlist_csv(candidates))
+        archive.writestr(readme_path(Path(csv_name)).name,
+                         shortlist_readme(shortlist, conditions, csv_name, now=now))
+    return buffer.getvalue()
 
 
 def shortlist_json(shortlist: dict[str, Any], candidates: list[Candidate],

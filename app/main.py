@@ -20,6 +20,7 @@ import screening
 from app.config import Settings
 from app.csrf import install_token
 from app.guard import RequestGuard
+from app.numbers import JINJA_FILTERS
 from app.page_cache import PageCache
 from app.routes import alloys, api, measurements, pages, shortlist_api, shortlist_pages, substrates
 from app.store import open_store
@@ -30,6 +31,7 @@ def make_templates(settings: Settings) -> Jinja2Templates:
     """The Jinja2 environment of the pages (autoescaping on)."""
     templates = Jinja2Templates(directory=settings.templates_dir)
     templates.env.globals["model_version"] = screening.MODEL_VERSION
+    templates.env.filters.update(JINJA_FILTERS)
     return templates
 
 

@@ -11,6 +11,7 @@ from collections.abc import Iterable
 from dataclasses import dataclass
 from typing import Any
 
+from app.numbers import estimate_text
 from screening.phillips import CRITICAL_IONICITY
 from screening.registry import BOND_ORBITAL, QUANTITIES, Quantity
 from screening.temperature import wavelength_nm
@@ -70,16 +71,14 @@ class Line:
 
     @property
     def text(self) -> str:
-        """The value as shown: measured numbers as given, model numbers to 3 decimals."""
+        """The value as shown: measured as given, estimates to their error bar (`app.numbers`)."""
         if self.value is None:
             return "—"
         if isinstance(self.value, bool) or not isinstance(self.value, int | float):
             return str(self.value)
         if self.route.startswith("measured"):
             return f"{self.value:.6g}"
-        if self.uncertainty is not None:
-            return f"{self.value:.3f} ± {self.uncertainty:.2f}"
-        return f"{self.value:.3f}"
+        return estimate_text(self.value, self.uncertainty)
 
     @property
     def wavelength_text(self) -> str:

@@ -25,13 +25,20 @@ from screening.evaluate import catalogue_table
 from screening.gaps import gaps_at
 from screening.hazards import CAUTION, hazard_notes
 from screening.phillips import PhillipsResult
-from screening.reference import measured_compounds
+from screening.reference import Measured, measured_compounds
 from screening.report import check_temperature, compound_report
 
-GAP_ROUTE = ("lowest valley of the end-point gaps interpolated with published bowing "
-             "parameters (Glisson et al., J. Electron. Mater. 7, 1 (1978) for quaternaries, "
-             "in the form of Vurgaftman, Meyer & Ram-Mohan, J. Appl. Phys. 89, 5815 (2001))")
+GAP_ROUTES = {
+    "ternary": "lowest valley of the end-point gaps interpolated along the ternary with "
+    "published bowing parameters, E = (1 - x) E_A + x E_B - x (1 - x) C (convention of "
+    "Vurgaftman, Meyer & Ram-Mohan, J. Appl. Phys. 89, 5815 (2001))",
+    "quaternary": "lowest valley of the end-point gaps interpolated with published bowing "
+    "parameters: weighted mean of the ternary edges (Glisson et al., J. Electron. Mater. 7, 1 "
+    "(1978), in the form of Vurgaftman, Meyer & Ram-Mohan, J. Appl. Phys. 89, 5815 (2001))",
+}
+"""The band-gap route of an alloy, by its form: a ternary is its one bowed edge."""
 VCA_ROUTE = "virtual-crystal approximation: end-point inputs averaged with weights p_i q_j"
+EPS_ROUTE = "virtual-crystal average of the end points' measured eps_inf, weights p_i q_j"
 KIND_OF_VALLEY = {"Gamma": "direct", "X": "indirect", "L": "indirect"}
 COORDINATION_OF_STRUCTURE = {"zincblende": "fourfold", "wurtzite": "fourfold",
                              "rocksalt": "sixfold"}
@@ -81,9 +88,16 @@ def _band_gap(alloy: Alloy, props: AlloyProperties) -> dict[str, Any]:
         "temperature_law_assumed": bool(assumed),
         "wavelength_nm": _float(HC_EV_NM / gap) if gap and gap > 0 else None,
         "default_bowing": bool(props.default_bowing[0]),
-        "route": GAP_ROUTE,
+        "route": GAP_ROUTES[alloy.system.form],
         "sources": list(props.gap_sources),
     }
+
+
+def _cited(item: Measured | None) -> str | None:
+    """Where a measured value comes from, "(from memory)" added where it was recalled."""
+    if item is None:
+        return None
+    return item.source + (" (from memory)" if item.from_memory else "")
 
 
 def _end_points(alloy: Alloy, temperature_K: float) -> list[dict[str, Any]]:
@@ -92,12 +106,23 @@ def _end_points(alloy: Alloy, temperature_K: float) -> list[dict[str, Any]]:
     data = measured_compounds()
     rows = []
     for b, binary in enumerate(alloy.system.binaries):
-        lattice = data[binary].get("lattice_a")
+        lattice, eps = data[binary].get("lattice_a"), data[binary].get("eps_inf")
         rows.append({"formula": binary, "weight": float(weights[b]),
                      "lattice_constant_angstrom": float(lattice.value) if lattice else None,
+                     "lattice_constant_source": _cited(lattice),
+                     "eps_inf": float(eps.value) if eps else None,
+                     "eps_inf_source": _cited(eps),
                      "band_gap_eV": _float(gaps[b]),
                      "band_gap_uncertainty_eV": _float(uncertainties[b])})
     return rows
+
+
+def _eps_inf(value: float, end_points: list[dict[str, Any]]) -> dict[str, Any]:
+    """The virtual-crystal eps_inf block: the value, or null and which end points lack one."""
+    missing = [p["formula"] for p in end_points if p["eps_inf"] is None]
+    return {"value": _float(value), "route": EPS_ROUTE,
+            "not_available": (f"no measured eps_inf for {', '.join(missing)}"
+                              if missing else None)}
 
 
 def _coordination(spectroscopic: PhillipsResult, predictive: PhillipsResult,
@@ -130,6 +155,7 @@ def alloy_report(text: str, temperature_K: float = 300.0) -> dict[str, Any]:
     n_cat = len(system.cations)
     present = [e for e, f in zip(system.elements, alloy.fractions, strict=True) if f > 0.0]
     notes = hazard_notes(present)
+    end_points = _end_points(alloy, temperature)
     flags = []
     if props.default_bowing[0]:
         flags.append("a default bowing (no published value for an edge) entered the band gap")
@@ -160,7 +186,8 @@ def alloy_report(text: str, temperature_K: float = 300.0) -> dict[str, Any]:
         "bond_length_used_angstrom": _float(vca.bond_length_angstrom[0]),
         "measured": {key: None for key in
                      ("band_gap_eV", "gap_kind", "eps_inf", "lattice_a", "lattice_c")},
-        "end_points": _end_points(alloy, temperature),
+        "end_points": end_points,
+        "eps_inf_vca": _eps_inf(float(vca.eps_inf[0]), end_points),
         "phillips": {"spectroscopic": _phillips(vca.spectroscopic),
                      "predictive": _phillips(vca.predictive), "route": VCA_ROUTE},
         "harrison": {

@@ -11,6 +11,7 @@ from app import queries, views
 from app.columns import COLUMNS_BY_KEY
 from app.commands.common import open_sessions
 from app.config import Settings, add_db_argument
+from app.numbers import terminal
 from screening.hazards import ROHS_SOURCE
 
 TEXT_COLUMNS: tuple[str, ...] = (
@@ -62,7 +63,7 @@ def render_text(rows: list[dict[str, Any]]) -> str:
     """Rows as an aligned text table with a header line."""
     columns = [COLUMNS_BY_KEY[k] for k in TEXT_COLUMNS]
     header = [c.label + (f" ({c.unit})" if c.unit else "") for c in columns]
-    body = [[" ".join(p for p in c.cell(row) if p) for c in columns] for row in rows]
+    body = [[terminal(" ".join(p for p in c.cell(row) if p)) for c in columns] for row in rows]
     widths = [max(len(h), *(len(r[i]) for r in body)) for i, h in enumerate(header)]
     lines = ["  ".join(h.ljust(w) for h, w in zip(header, widths, strict=True)).rstrip()]
     lines += ["  ".join(v.ljust(w) for v, w in zip(r, widths, strict=True)).rstrip() for r in body]

@@ -11,6 +11,7 @@ from app.commands.common import open_sessions
 from app.config import Settings, add_db_argument
 from app.finder import DEFAULT_LIMIT, DEFAULT_TOLERANCE_EV, SORT_KEYS, MatchQuery, run_match
 from app.finder_payload import match_payload
+from app.numbers import fixed, round_estimate, thickness_text
 from app.views import caution_line
 from screening.epitaxy import GEOMETRIES
 from screening.hazards import toxic_elements
@@ -68,13 +69,17 @@ def render_text(payload: dict[str, Any]) -> str:
     header = ("formula", "a (A)", "mismatch", "gap (eV)", "+/- (eV)", "wl (nm)", "h_c (nm)")
     rows = []
     for m in payload["matches"]:
-        h_c = m["critical_thickness_nm"]
+        h_c, matched = m["critical_thickness_nm"], m["lattice_matched"]
+        gap = m["band_gap_eV"]
+        places = 3 if gap is None else round_estimate(gap, m["band_gap_uncertainty_eV"])[2]
         rows.append((
-            m["formula"], f"{m['lattice_constant_angstrom']:.4f}", f"{m['mismatch']:+.2e}",
-            "-" if m["band_gap_eV"] is None else f"{m['band_gap_eV']:.3f}",
-            "-" if m["band_gap_uncertainty_eV"] is None else f"{m['band_gap_uncertainty_eV']:.3f}",
+            m["formula"], f"{m['lattice_constant_angstrom']:.4f}",
+            f"{m['mismatch']:+.2e}" if m["mismatch"] else "0",
+            "-" if gap is None else fixed(gap, places),
+            "-" if m["band_gap_uncertainty_eV"] is None else fixed(
+                m["band_gap_uncertainty_eV"], places),
             "-" if m["wavelength_nm"] is None else f"{m['wavelength_nm']:.0f}",
-            f"{h_c:.1f}" if h_c is not None else ("inf" if m["lattice_matched"] else "n/a"),
+            "n/a" if h_c is None and not matched else thickness_text(h_c, matched=matched),
         ))
     widths = [max(len(h), *(len(r[i]) for r in rows)) for i, h in enumerate(header)]
     lines.append("  ".join(h.ljust(w) for h, w in zip(header, widths, strict=True)).rstrip())

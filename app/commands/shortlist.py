@@ -21,8 +21,16 @@ from app.commands.common import open_sessions
 from app.compare import compare_rows
 from app.conditions import Conditions
 from app.config import Settings, add_db_argument
-from app.exports import shortlist_csv, shortlist_json, write_cells
+from app.exports import (
+    SIDECAR_SUFFIX,
+    readme_path,
+    shortlist_csv,
+    shortlist_json,
+    shortlist_readme,
+    write_cells,
+)
 from app.imports import MAX_BYTES, check_size, import_measurements
+from app.numbers import terminal
 
 
 def _conditions_options(parser: argparse.ArgumentParser) -> None:
@@ -81,7 +89,9 @@ def register(sub: argparse._SubParsersAction) -> None:
     p = action("export", "export a list as CSV or JSON, or its crystal cells")
     p.add_argument("name")
     out = p.add_mutually_exclusive_group(required=True)
-    out.add_argument("--csv", nargs="?", const="-", metavar="FILE", help="CSV (default stdout)")
+    out.add_argument("--csv", nargs="?", const="-", metavar="FILE",
+                     help="CSV (default stdout); with FILE, also FILE's README beside it "
+                     f"(NAME{SIDECAR_SUFFIX}: conditions, units, sources)")
     out.add_argument("--json", nargs="?", const="-", metavar="FILE", help="JSON (default stdout)")
     out.add_argument("--cif", metavar="DIR", help="CIF (and POSCAR) files into a folder")
     p = action("import-measurements", "import your measured values from a CSV file")
@@ -104,7 +114,7 @@ def _conditions(args: argparse.Namespace, session: Session, base: Conditions | N
         session=session)
 
 
-def _write(destination: str, text: str) -> None:
+def _write(destination: str, text: str, what: str = "") -> None:
     if destination == "-":
         sys.stdout.write(text)
         return
@@ -112,7 +122,7 @@ def _write(destination: str, text: str) -> None:
         Path(destination).write_text(text, encoding="utf-8", newline="")
     except OSError as exc:
         raise UsageError(f"cannot write {destination}: {exc.strerror or exc}") from exc
-    print(f"wrote {destination}")
+    print(f"wrote {destination}{what}")
 
 
 def _read(path: str) -> bytes:
@@ -144,7 +154,8 @@ def render_compare(rows: list[Any], formulas: list[str]) -> str:
     """The comparison as an aligned text table; * marks the best cell of a row."""
     head = ["property", *formulas, "best"]
     body = [[f"{r.label}" + (f" ({r.unit})" if r.unit else ""),
-             *[c.text + (" *" if i in r.best else "") for i, c in enumerate(r.cells)], r.rule]
+             *[terminal(c.text) + (" *" if i in r.best else "") for i, c in enumerate(r.cells)],
+             r.rule]
             for r in rows]
     widths = [max(len(x[i]) for x in [head, *body]) for i in range(len(head))]
     return "\n".join("  ".join(v.ljust(w) for v, w in zip(line, widths, strict=True)).rstrip()
@@ -208,7 +219,12 @@ def _dispatch(args: argparse.Namespace, session: Session) -> str | None:  # noqa
             raise UsageError(f"cannot write into {args.cif}: {exc.strerror or exc}") from exc
         return "\n".join(f"wrote {p}" for p in paths)
     if args.csv:
-        _write(args.csv, shortlist_csv(view.data, view.candidates, view.conditions))
+        _write(args.csv, shortlist_csv(view.candidates))
+        if args.csv != "-":
+            name = Path(args.csv).name
+            _write(str(readme_path(Path(args.csv))),
+                   shortlist_readme(view.data, view.conditions, name),
+                   f" (its README: conditions, units, sources and columns of {name})")
     else:
         _write(args.json, shortlist_json(view.data, view.candidates, view.conditions))
     return None

@@ -9,6 +9,7 @@ from typing import Any
 from app import alloy_views, gap_views, queries, views
 from app.commands.common import open_sessions
 from app.config import Settings, add_db_argument
+from app.numbers import terminal
 from app.params import parse_temperature
 
 
@@ -56,7 +57,7 @@ def render_text(report: dict[str, Any]) -> str:
         lines += ["", section.title]
         width = max(len(line.label) for line in section.lines)
         for line in section.lines:
-            value = f"{line.text} {line.unit}".rstrip()
+            value = terminal(f"{line.text} {line.unit}".rstrip())
             if line.wavelength_text:
                 value += f" ({line.wavelength_text})"
             source = f"; {line.source}" if line.source else ""

@@ -15,7 +15,7 @@ from app.compare import compare_rows
 from app.compare_payload import chart_data, rows_payload
 from app.conditions import Conditions
 from app.deps import SessionDep, ShortlistId
-from app.exports import cells_zip, shortlist_csv, shortlist_json
+from app.exports import cells_zip, csv_zip, shortlist_csv, shortlist_json
 from app.params import QueryError, TableQuery
 from app.queries import table_rows
 from app.shortlist_checks import NAME_LENGTH, NOTE_LENGTH
@@ -200,11 +200,21 @@ def _download(body: str | bytes, media_type: str, filename: str) -> Response:
                     headers={"Content-Disposition": f'attachment; filename="{filename}"'})
 
 
+@router.get("/{shortlist_id}/export.zip", responses=ERRORS,
+            summary="Export as CSV with its README (zip)")
+def export_zip(session: SessionDep, shortlist_id: ShortlistId) -> Response:
+    """The CSV (header row first) and its README (conditions, units, sources, columns)."""
+    view = load_shortlist(session, shortlist_id=shortlist_id)
+    body = csv_zip(view.data, view.candidates, view.conditions,
+                   download_name(view.data["name"], ".csv"))
+    return _download(body, "application/zip", download_name(view.data["name"], "-csv.zip"))
+
+
 @router.get("/{shortlist_id}/export.csv", responses=ERRORS, summary="Export as CSV")
 def export_csv(session: SessionDep, shortlist_id: ShortlistId) -> Response:
-    """One row per candidate, after a #-header block (units, model version, conditions)."""
+    """One row per candidate after the header row; conditions and units: `export.zip`."""
     view = load_shortlist(session, shortlist_id=shortlist_id)
-    text = shortlist_csv(view.data, view.candidates, view.conditions)
+    text = shortlist_csv(view.candidates)
     return _download(text.encode("utf-8"), "text/csv; charset=utf-8",
                      download_name(view.data["name"], ".csv"))
 

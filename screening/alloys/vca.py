@@ -49,6 +49,8 @@ class VcaResult:
         spectroscopic: Phillips spectroscopic route (NaN where an end point lacks eps_inf).
         predictive: Phillips predictive route.
         bonds: Harrison bond orbitals (``bonds.polarity`` is alpha_p).
+        eps_inf: Virtual-crystal eps_inf, the weighted mean of the end points' measured eps_inf
+            that the spectroscopic route uses (NaN where an end point has none).
     """
 
     system: AlloySystem
@@ -56,6 +58,7 @@ class VcaResult:
     spectroscopic: PhillipsResult
     predictive: PhillipsResult
     bonds: BondOrbitals
+    eps_inf: NDArray[np.float64]
 
 
 @lru_cache(maxsize=1)
@@ -118,4 +121,4 @@ def vca_bonds(system: AlloySystem, fractions: ArrayLike) -> VcaResult:
                                      1.0, 1.0, CALIBRATION.screening_prefactor_b)
     bonds = bond_orbitals(averaged["s_cation"], averaged["p_cation"], averaged["s_anion"],
                           averaged["p_anion"], d)
-    return VcaResult(system, d, spectroscopic, predictive, bonds)
+    return VcaResult(system, d, spectroscopic, predictive, bonds, averaged["eps_inf"])

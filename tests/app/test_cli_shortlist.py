@@ -31,12 +31,19 @@ def test_create_add_note_list_export_without_the_browser(db_path: Path, tmp_path
     code, out, _ = run(capsys, db_path, "shortlist", "list")
     assert out.strip() == "Laser  (2 candidates)"
     target = tmp_path / "laser.csv"
-    assert run(capsys, db_path, "shortlist", "export", "Laser", "--csv", str(target))[0] == 0
-    rows = [r for r in csv.reader(io.StringIO(target.read_text(encoding="utf-8-sig")))
-            if not r[0].startswith("#")]
+    code, out, _ = run(capsys, db_path, "shortlist", "export", "Laser", "--csv", str(target))
+    readme = tmp_path / "laser-README.txt"  # the sidecar, beside the CSV and named in the output
+    assert code == 0 and f"wrote {target}" in out and f"wrote {readme}" in out
+    rows = list(csv.reader(io.StringIO(target.read_text(encoding="utf-8-sig"))))
+    assert rows[0][:2] == ["position", "formula"]  # the header row first
     table = [dict(zip(rows[0], r, strict=True)) for r in rows[1:]]
     assert [(r["formula"], r["note"]) for r in table] == [("InP", "'=1+2"),
                                                           ("In0.53Ga0.47As", "matched")]
+    about = readme.read_text(encoding="utf-8")
+    assert "shortlist: Laser" in about and "substrate: InP" in about
+    assert "target: wavelength 1550 nm" in about and "  band_gap_eV: " in about
+    code, out, _ = run(capsys, db_path, "shortlist", "export", "Laser", "--csv")
+    assert code == 0 and out.startswith("\ufeffposition,formula,")  # stdout: the CSV alone
     code, out, _ = run(capsys, db_path, "shortlist", "export", "Laser", "--json")
     assert json.loads(out)["candidates"][0]["report"]["formula"] == "InP"
     folder = tmp_path / "cells"

@@ -80,7 +80,7 @@ def test_compare_marks_the_best_values_by_the_list_conditions(client) -> None:
                         "mismatch", "critical_thickness_nm", "ionicity", "polarity", "stability"]
     assert rows["band_gap_eV"]["best"] == [1]  # InGaAs: 0.74 eV, closest to 0.75
     assert rows["mismatch"]["best"] == [3]  # InP on InP
-    assert rows["critical_thickness_nm"]["cells"][3]["text"] == "no limit"
+    assert rows["critical_thickness_nm"]["cells"][3]["text"] == "∞"  # lattice-matched: one rule
     assert rows["rohs_restricted"]["cells"][2]["text"] == "Cd"
     assert "2011/65/EU" in rows["rohs_restricted"]["cells"][2]["source"]
     for row in body["rows"]:

@@ -137,3 +137,26 @@ def test_alloy_report_imports_no_web_or_database_module() -> None:
     )
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
     assert json.loads(out.stdout) == []
+
+
+def test_alloy_eps_inf_and_sources_come_from_the_end_points() -> None:
+    report = alloy_report("In0.53Ga0.47As")
+    ends = {p["formula"]: p for p in report["end_points"]}
+    # Virtual-crystal eps_inf: the weighted mean of the end points' measured values (a named
+    # formula: weights p_i q_j = 0.53 and 0.47), computed here from the report's own inputs.
+    expected = 0.53 * ends["InAs"]["eps_inf"] + 0.47 * ends["GaAs"]["eps_inf"]
+    assert report["eps_inf_vca"]["value"] == pytest.approx(expected, rel=1e-12)
+    assert report["eps_inf_vca"]["not_available"] is None
+    assert all(p["lattice_constant_source"] and p["eps_inf_source"] for p in ends.values())
+    # HgTe has no measured eps_inf in the seed data: no value, and the report says why.
+    hgcdte = alloy_report("Hg0.7Cd0.3Te")["eps_inf_vca"]
+    assert hgcdte["value"] is None and "HgTe" in hgcdte["not_available"]
+
+
+@pytest.mark.parametrize(("formula", "glisson"), [("In0.53Ga0.47As", False),
+                                                  ("GaAs0.5Sb0.5", False),
+                                                  ("In0.73Ga0.27As0.58P0.42", True)])
+def test_a_ternary_does_not_cite_the_quaternary_scheme(formula, glisson) -> None:
+    route = alloy_report(formula)["band_gap"]["route"]
+    assert ("Glisson" in route) == glisson
+    assert "Vurgaftman, Meyer & Ram-Mohan" in route
