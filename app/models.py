@@ -139,7 +139,8 @@ def row_values(report: dict[str, Any]) -> dict[str, Any]:
         "polar_energy_ev": _dig(report, "harrison", "polar_energy_eV"),
         "coordination_predicted": _dig(report, "coordination", "predicted"),
         "coordination_observed": _dig(report, "coordination", "observed"),
-        "hazard_elements": ",".join(_dig(report, "hazards", "elements") or ()),
+        "hazard_elements": ",".join(_dig(report, "hazards", "caution_elements")
+                                    or _dig(report, "hazards", "elements") or ()),
         "model_version": report.get("model_version", screening.MODEL_VERSION),
         "report_json": json.dumps(report, ensure_ascii=False, sort_keys=True),
         "gap_value_ev": gap.get("value_eV"),

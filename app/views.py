@@ -2,6 +2,8 @@
 
 Labels, units, routes and references of computed quantities come from `screening.registry`,
 so the page lists whatever the registry lists; measured values carry their own source.
+
+`caution_line` (from `screening.hazards`) is the one caution every page and command shows.
 """
 
 from __future__ import annotations
@@ -11,11 +13,10 @@ from collections.abc import Iterable
 from dataclasses import dataclass
 from typing import Any
 
+from screening.hazards import caution_line as caution_line
 from screening.phillips import CRITICAL_IONICITY
 from screening.registry import BOND_ORBITAL, QUANTITIES, Quantity
 from screening.temperature import wavelength_nm
-
-CAUTION_TAIL = "toxic; follow the safety data sheets, local codes and your site's safety rules"
 
 EXTRA_QUANTITIES: tuple[Quantity, ...] = (
     Quantity("harrison.hybrid_energy_cation_eV", "Cation sp3 hybrid energy", "eV",
@@ -159,12 +160,6 @@ def report_sections(report: dict[str, Any]) -> list[Section]:
     for group, lines in groups.items():
         sections.append(Section(titles.get(group, group.capitalize()), tuple(lines)))
     return sections
-
-
-def caution_line(elements: Iterable[str]) -> str | None:
-    """The caution shown where toxic elements appear, e.g. "contains As: toxic; follow ..."."""
-    names = sorted(set(elements))
-    return f"contains {', '.join(names)}: {CAUTION_TAIL}" if names else None
 
 
 def _finite(*values: Any) -> bool:

@@ -23,7 +23,7 @@ from screening.constants import HC_EV_NM
 from screening.coordination import BORDERLINE_HALF_WIDTH, predicted_coordination
 from screening.evaluate import catalogue_table
 from screening.gaps import gaps_at
-from screening.hazards import CAUTION, hazard_notes
+from screening.hazards import hazards_block
 from screening.phillips import PhillipsResult
 from screening.reference import measured_compounds
 from screening.report import check_temperature, compound_report
@@ -129,7 +129,6 @@ def alloy_report(text: str, temperature_K: float = 300.0) -> dict[str, Any]:
     bonds = vca.bonds
     n_cat = len(system.cations)
     present = [e for e, f in zip(system.elements, alloy.fractions, strict=True) if f > 0.0]
-    notes = hazard_notes(present)
     flags = []
     if props.default_bowing[0]:
         flags.append("a default bowing (no published value for an edge) entered the band gap")
@@ -183,12 +182,7 @@ def alloy_report(text: str, temperature_K: float = 300.0) -> dict[str, Any]:
                     "poisson_assumed": bool(props.poisson_assumed[0]),
                     "route": "nu = C12 / (C11 + C12) of Vegard-averaged C11, C12"},
         "coordination": _coordination(vca.spectroscopic, vca.predictive, system.structure),
-        "hazards": {
-            "elements": [n.element for n in notes if n.toxic],
-            "notes": [{"element": n.element, "toxic": n.toxic, "note": n.note,
-                       "precursors": n.precursors} for n in notes],
-            "caution": CAUTION if notes else None,
-        },
+        "hazards": hazards_block(present),
         "flags": flags,
     }
 

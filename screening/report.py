@@ -14,7 +14,7 @@ from screening.errors import BondgapInputError
 from screening.evaluate import CatalogueTable, catalogue_table
 from screening.formula import parse_compound
 from screening.gaps import GapsAt, gap_model, gaps_at
-from screening.hazards import CAUTION, hazard_notes
+from screening.hazards import hazards_block
 from screening.phillips import PhillipsResult
 from screening.reference import Measured
 
@@ -99,7 +99,6 @@ def _report(table: CatalogueTable, i: int, at: GapsAt) -> dict[str, Any]:
     compound = table.compounds[i]
     measured = table.measured[i]
     bonds = table.bonds
-    notes = hazard_notes(compound.elements)
     return {
         "formula": compound.formula,
         "family": compound.family,
@@ -146,12 +145,7 @@ def _report(table: CatalogueTable, i: int, at: GapsAt) -> dict[str, Any]:
             "route": table.coordination_route[i],
             "observed": table.coordination_observed[i],
         },
-        "hazards": {
-            "elements": [n.element for n in notes if n.toxic],
-            "notes": [{"element": n.element, "toxic": n.toxic, "note": n.note,
-                       "precursors": n.precursors} for n in notes],
-            "caution": CAUTION if notes else None,
-        },
+        "hazards": hazards_block(compound.elements),
     }
 
 
