@@ -17,6 +17,7 @@ from screening.gaps import GapsAt, gap_model, gaps_at
 from screening.hazards import hazards_block
 from screening.phillips import PhillipsResult
 from screening.reference import Measured
+from screening.suggest import with_suggestions
 
 
 def _float(value: Any) -> float | None:
@@ -150,8 +151,15 @@ def _report(table: CatalogueTable, i: int, at: GapsAt) -> dict[str, Any]:
 
 
 def normalise_formula(text: str) -> str:
-    """Normalised formula of an octet binary (raises `BondgapInputError` subclasses)."""
-    return parse_compound(text).formula
+    """Normalised formula of an octet binary (raises `BondgapInputError` subclasses).
+
+    The error says "did you mean ...?" where the text re-cased as element symbols is a
+    compound ("INP" -> InP; `screening.suggest`).
+    """
+    try:
+        return parse_compound(text).formula
+    except BondgapInputError as exc:
+        raise with_suggestions(exc, text, lambda c: parse_compound(c).formula) from None
 
 
 def compound_report(formula: str, temperature_K: float = 300.0) -> dict[str, Any]:
