@@ -16,6 +16,7 @@ from typing import Any
 from screening.hazards import caution_line as caution_line
 from screening.phillips import CRITICAL_IONICITY
 from screening.registry import BOND_ORBITAL, QUANTITIES, Quantity
+from screening.registry import report_value as dig
 from screening.temperature import wavelength_nm
 
 EXTRA_QUANTITIES: tuple[Quantity, ...] = (
@@ -103,15 +104,6 @@ def wavelength_of(gap_eV: Any) -> float | None:
     return float(wavelength_nm(gap_eV))
 
 
-def dig(report: Any, dotted: str) -> Any:
-    """Value at a dotted path of the report (`phillips.predictive.ionicity`); None if absent."""
-    for part in dotted.split("."):
-        if not isinstance(report, dict):
-            return None
-        report = report.get(part)
-    return report
-
-
 def _measured_lines(report: dict[str, Any]) -> tuple[Line, ...]:
     lines = [Line("Structure", dig(report, "structure.observed"), "", "observed",
                   dig(report, "structure.source") or "")]
@@ -148,10 +140,7 @@ def report_sections(report: dict[str, Any]) -> list[Section]:
     known = {q.key for q in QUANTITIES}
     for q in (*QUANTITIES, *(e for e in EXTRA_QUANTITIES if e.key not in known)):
         group = q.key.split(".")[0] if "." in q.key else "structure"
-        route = q.route
-        if q.key == "coordination.predicted" and dig(report, "coordination.route"):
-            route += f" ({dig(report, 'coordination.route')} fi)"
-        line = Line(q.label, dig(report, q.key), q.unit, route, q.reference)
+        line = Line(q.label, dig(report, q.key), q.unit, q.route_in(report), q.reference)
         groups.setdefault(group, []).append(line)
     groups.setdefault("coordination", []).append(Line(
         "Coordination (observed)", dig(report, "coordination.observed"), "",

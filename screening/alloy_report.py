@@ -154,9 +154,13 @@ def alloy_report(text: str, temperature_K: float = 300.0) -> dict[str, Any]:
         "lattice_constant_angstrom": _float(props.lattice_constant_angstrom[0]),
         "lattice_c_angstrom": _float(props.lattice_c_angstrom[0]),
         "lattice_route": "Vegard's law over the end points' measured lattice constants",
+        "lattice_constant_source": "interpolated",
+        "lattice_constant_estimated_angstrom": None,
+        "lattice_estimate": None,
         "bond_length_angstrom": _float(vca.bond_length_angstrom[0]),
         "bond_length_estimated_angstrom": None,
         "bond_length_used_angstrom": _float(vca.bond_length_angstrom[0]),
+        "bond_length_source": "interpolated",
         "measured": {key: None for key in
                      ("band_gap_eV", "gap_kind", "eps_inf", "lattice_a", "lattice_c")},
         "end_points": _end_points(alloy, temperature),
