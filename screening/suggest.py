@@ -33,15 +33,29 @@ Error = TypeVar("Error", bound=BondgapInputError)
 
 
 def _symbol_splits(letters: str) -> Iterator[list[str]]:
-    """Every way to read a run of letters as element symbols (any case), one- or two-letter."""
-    if not letters:
-        yield []
-        return
-    for size in (2, 1):
-        symbol = _SYMBOL_OF_LOWER.get(letters[:size].lower())
-        if symbol is not None and len(letters) >= size:
-            for rest in _symbol_splits(letters[size:]):
-                yield [symbol, *rest]
+    """Every way to read a run of letters as element symbols (any case), one- or two-letter.
+
+    Only positions from which the rest can still be read are entered, so each reading costs
+    O(len) and a run that cannot be read costs O(len) in all (no backtracking blow-up).
+    """
+    n = len(letters)
+    symbols = [{size: _SYMBOL_OF_LOWER.get(letters[i:i + size].lower())
+                for size in (2, 1) if i + size <= n} for i in range(n)]
+    viable = [False] * n + [True]
+    for i in range(n - 1, -1, -1):
+        viable[i] = any(sym is not None and viable[i + size] for size, sym in symbols[i].items())
+
+    def walk(i: int) -> Iterator[list[str]]:
+        if i == n:
+            yield []
+            return
+        for size, symbol in symbols[i].items():
+            if symbol is not None and viable[i + size]:
+                for rest in walk(i + size):
+                    yield [symbol, *rest]
+
+    if viable[0]:
+        yield from walk(0)
 
 
 def recased_readings(text: str) -> list[str]:
