@@ -157,6 +157,6 @@ def alloy_context(session: Session, report: dict[str, Any], *, on: str | None,
         "plane": plane_chart([system], lattice=system.lattice or "cubic",
                              temperature_K=report["band_gap"]["temperature_K"],
                              substrate=substrate, window=None, highlighted=[point]),
-        "hazard_caution": views.caution_line(report["hazards"]["elements"]),
+        "hazard_caution": views.caution_line(report["hazards"]["caution_elements"]),
         "hazard_notes": report["hazards"]["notes"],
     }

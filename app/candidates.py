@@ -19,6 +19,7 @@ from app.conditions import Conditions
 from app.models import ShortlistItem, UserMeasurement
 from screening.errors import BondgapInputError
 from screening.hazards import ROHS_RESTRICTED, ROHS_SOURCE, rohs_restricted
+from screening.hazards import caution_elements as hazard_caution_elements
 
 USER_PROPERTIES: dict[str, tuple[str, str]] = {
     "lattice_a": ("Lattice constant a", "Å"),
@@ -145,8 +146,11 @@ def build_candidates(session: Session, items: list[ShortlistItem],
 
 
 def caution_elements(candidates: list[Candidate]) -> list[str]:
-    """The toxic elements of all candidates (for the page's caution line)."""
-    return sorted({e for c in candidates for e in c.toxic})
+    """The elements of all candidates that call for a caution (for the page's caution line).
+
+    Toxic elements and those grown from a hazardous precursor (`screening.hazards`).
+    """
+    return sorted({e for c in candidates for e in hazard_caution_elements(c.elements)})
 
 
 def rohs_elements(candidates: list[Candidate]) -> list[str]:

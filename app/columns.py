@@ -75,6 +75,9 @@ def _registry_column(key: str, attr: str, quantity: str, digits: int = 3) -> Col
     return Column(key, attr, q.label, q.unit, f"{q.route} ({q.reference})", kind, digits)
 
 
+LATTICE = BY_KEY["lattice_constant_angstrom"]
+LATTICE_ESTIMATE = BY_KEY["lattice_constant_estimated_angstrom"]
+
 COLUMNS: tuple[Column, ...] = (
     Column("formula", "formula", "Compound", "", "Formula, cation first", "text"),
     Column("family", "family", "Family", "", "IV-IV, III-V, II-VI or I-VII", "text"),
@@ -108,8 +111,17 @@ COLUMNS: tuple[Column, ...] = (
            "text", shown=False),
     Column("eps_inf", "eps_inf", "ε∞", "", "Measured high-frequency dielectric constant",
            digits=2),
-    _registry_column("lattice_constant_angstrom", "lattice_constant_angstrom",
-                     "lattice_constant_angstrom", digits=4),
+    Column("lattice_constant_angstrom", "lattice_constant_shown", LATTICE.label, LATTICE.unit,
+           "Lattice constant a: measured where known (m), else estimated (est.) with its "
+           f"uncertainty: {LATTICE_ESTIMATE.route}", digits=4,
+           source_key="lattice_constant_source",
+           uncertainty_key="lattice_constant_uncertainty_angstrom"),
+    Column("lattice_constant_source", "lattice_constant_source", "Lattice constant from", "",
+           "Where the lattice constant comes from: measured or estimate", "text", shown=False),
+    Column("lattice_constant_uncertainty_angstrom", "lattice_constant_uncertainty",
+           "± lattice constant", "Å",
+           "Uncertainty of an estimated lattice constant: leave-one-out RMS error of the bond "
+           "length times da/dd", digits=2, shown=False),
     Column("bond_length_angstrom", "bond_length_angstrom", "Bond length", "Å",
            "Bond length the models used: measured where known, else estimated"),
     _registry_column("ionicity_spectroscopic", "ionicity_spectroscopic",

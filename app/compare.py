@@ -222,8 +222,8 @@ def _quantity(c: Candidate, q: Quantity) -> Cell:
     value = dig(c.report, q.key)
     block_route = dig(c.report, q.key.split(".")[0] + ".route") if "." in q.key else None
     text = value if isinstance(value, str) else _num(value, 3)
-    return Cell(value, text, f"{q.route}; {block_route}" if block_route else q.route,
-                q.reference)
+    route = q.route_in(c.report)
+    return Cell(value, text, f"{route}; {block_route}" if block_route else route, q.reference)
 
 
 def _best(scores: list[Any]) -> tuple[int, ...]:

@@ -24,6 +24,7 @@ from app.numbers import JINJA_FILTERS
 from app.page_cache import PageCache
 from app.routes import alloys, api, measurements, pages, shortlist_api, shortlist_pages, substrates
 from app.store import open_store
+from app.validation import plain_messages
 from screening.errors import BondgapInputError, one_line
 
 
@@ -55,11 +56,7 @@ async def _input_error(request: Request, exc: Exception) -> Response:
 
 async def _validation_error(request: Request, exc: Exception) -> Response:
     assert isinstance(exc, RequestValidationError)
-    parts = []
-    for err in exc.errors():
-        where = ".".join(str(p) for p in err.get("loc", ()) if p not in ("query", "path"))
-        parts.append(f"{where}: {err.get('msg', 'invalid value')}")
-    return _error(request, 422, "; ".join(parts) or "invalid request")
+    return _error(request, 422, plain_messages(exc.errors()))
 
 
 async def _busy_error(request: Request, exc: Exception) -> Response:

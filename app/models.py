@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import json
 from datetime import datetime
+from functools import cached_property
 from typing import Any
 
 from sqlalchemy import (
@@ -98,6 +99,31 @@ class CompoundResult(Base):
     gap_kind_source: Mapped[str | None] = mapped_column(String(32))
     tb_direct: Mapped[bool | None] = mapped_column(Boolean)
 
+    @cached_property
+    def report(self) -> dict[str, Any]:
+        """The stored engine report, read once per row object."""
+        return json.loads(self.report_json)
+
+    @property
+    def lattice_constant_shown(self) -> float | None:
+        """The lattice constant a: measured where known, else the estimate (no new column)."""
+        if self.lattice_constant_angstrom is not None:
+            return self.lattice_constant_angstrom
+        return self.report.get("lattice_constant_estimated_angstrom")
+
+    @property
+    def lattice_constant_source(self) -> str | None:
+        """Where `lattice_constant_shown` comes from: "measured" or "estimate" (None: none)."""
+        if self.lattice_constant_angstrom is not None:
+            return "measured"
+        return "estimate" if self.lattice_constant_shown is not None else None
+
+    @property
+    def lattice_constant_uncertainty(self) -> float | None:
+        """Uncertainty of an estimated lattice constant, angstrom (None where measured)."""
+        if self.lattice_constant_source != "estimate":
+            return None
+        return _dig(self.report, "lattice_estimate", "uncertainty_angstrom")
 
 
 class UserSubstrate(NamedRow, Base):
@@ -159,7 +185,8 @@ def row_values(report: dict[str, Any]) -> dict[str, Any]:
         "polar_energy_ev": _dig(report, "harrison", "polar_energy_eV"),
         "coordination_predicted": _dig(report, "coordination", "predicted"),
         "coordination_observed": _dig(report, "coordination", "observed"),
-        "hazard_elements": ",".join(_dig(report, "hazards", "elements") or ()),
+        "hazard_elements": ",".join(_dig(report, "hazards", "caution_elements")
+                                    or _dig(report, "hazards", "elements") or ()),
         "model_version": report.get("model_version", screening.MODEL_VERSION),
         "report_json": json.dumps(report, ensure_ascii=False, sort_keys=True),
         "gap_value_ev": gap.get("value_eV"),

@@ -2,6 +2,8 @@
 
 Labels, units, routes and references of computed quantities come from `screening.registry`,
 so the page lists whatever the registry lists; measured values carry their own source.
+
+`caution_line` (from `screening.hazards`) is the one caution every page and command shows.
 """
 
 from __future__ import annotations
@@ -12,11 +14,11 @@ from dataclasses import dataclass
 from typing import Any
 
 from app.numbers import estimate_text
+from screening.hazards import caution_line as caution_line
 from screening.phillips import CRITICAL_IONICITY
 from screening.registry import BOND_ORBITAL, QUANTITIES, Quantity
+from screening.registry import report_value as dig
 from screening.temperature import wavelength_nm
-
-CAUTION_TAIL = "toxic; follow the safety data sheets, local codes and your site's safety rules"
 
 EXTRA_QUANTITIES: tuple[Quantity, ...] = (
     Quantity("harrison.hybrid_energy_cation_eV", "Cation sp3 hybrid energy", "eV",
@@ -101,15 +103,6 @@ def wavelength_of(gap_eV: Any) -> float | None:
     return float(wavelength_nm(gap_eV))
 
 
-def dig(report: Any, dotted: str) -> Any:
-    """Value at a dotted path of the report (`phillips.predictive.ionicity`); None if absent."""
-    for part in dotted.split("."):
-        if not isinstance(report, dict):
-            return None
-        report = report.get(part)
-    return report
-
-
 def _measured_lines(report: dict[str, Any]) -> tuple[Line, ...]:
     lines = [Line("Structure", dig(report, "structure.observed"), "", "observed",
                   dig(report, "structure.source") or "")]
@@ -146,10 +139,7 @@ def report_sections(report: dict[str, Any]) -> list[Section]:
     known = {q.key for q in QUANTITIES}
     for q in (*QUANTITIES, *(e for e in EXTRA_QUANTITIES if e.key not in known)):
         group = q.key.split(".")[0] if "." in q.key else "structure"
-        route = q.route
-        if q.key == "coordination.predicted" and dig(report, "coordination.route"):
-            route += f" ({dig(report, 'coordination.route')} fi)"
-        line = Line(q.label, dig(report, q.key), q.unit, route, q.reference)
+        line = Line(q.label, dig(report, q.key), q.unit, q.route_in(report), q.reference)
         groups.setdefault(group, []).append(line)
     groups.setdefault("coordination", []).append(Line(
         "Coordination (observed)", dig(report, "coordination.observed"), "",
@@ -158,12 +148,6 @@ def report_sections(report: dict[str, Any]) -> list[Section]:
     for group, lines in groups.items():
         sections.append(Section(titles.get(group, group.capitalize()), tuple(lines)))
     return sections
-
-
-def caution_line(elements: Iterable[str]) -> str | None:
-    """The caution shown where toxic elements appear, e.g. "contains As: toxic; follow ..."."""
-    names = sorted(set(elements))
-    return f"contains {', '.join(names)}: {CAUTION_TAIL}" if names else None
 
 
 def _finite(*values: Any) -> bool:

@@ -23,7 +23,7 @@ from screening.constants import HC_EV_NM
 from screening.coordination import BORDERLINE_HALF_WIDTH, predicted_coordination
 from screening.evaluate import catalogue_table
 from screening.gaps import gaps_at
-from screening.hazards import CAUTION, hazard_notes
+from screening.hazards import hazards_block
 from screening.phillips import PhillipsResult
 from screening.reference import Measured, measured_compounds
 from screening.report import check_temperature, compound_report
@@ -154,7 +154,6 @@ def alloy_report(text: str, temperature_K: float = 300.0) -> dict[str, Any]:
     bonds = vca.bonds
     n_cat = len(system.cations)
     present = [e for e, f in zip(system.elements, alloy.fractions, strict=True) if f > 0.0]
-    notes = hazard_notes(present)
     end_points = _end_points(alloy, temperature)
     flags = []
     if props.default_bowing[0]:
@@ -181,9 +180,13 @@ def alloy_report(text: str, temperature_K: float = 300.0) -> dict[str, Any]:
         "lattice_constant_angstrom": _float(props.lattice_constant_angstrom[0]),
         "lattice_c_angstrom": _float(props.lattice_c_angstrom[0]),
         "lattice_route": "Vegard's law over the end points' measured lattice constants",
+        "lattice_constant_source": "interpolated",
+        "lattice_constant_estimated_angstrom": None,
+        "lattice_estimate": None,
         "bond_length_angstrom": _float(vca.bond_length_angstrom[0]),
         "bond_length_estimated_angstrom": None,
         "bond_length_used_angstrom": _float(vca.bond_length_angstrom[0]),
+        "bond_length_source": "interpolated",
         "measured": {key: None for key in
                      ("band_gap_eV", "gap_kind", "eps_inf", "lattice_a", "lattice_c")},
         "end_points": end_points,
@@ -210,12 +213,7 @@ def alloy_report(text: str, temperature_K: float = 300.0) -> dict[str, Any]:
                     "poisson_assumed": bool(props.poisson_assumed[0]),
                     "route": "nu = C12 / (C11 + C12) of Vegard-averaged C11, C12"},
         "coordination": _coordination(vca.spectroscopic, vca.predictive, system.structure),
-        "hazards": {
-            "elements": [n.element for n in notes if n.toxic],
-            "notes": [{"element": n.element, "toxic": n.toxic, "note": n.note,
-                       "precursors": n.precursors} for n in notes],
-            "caution": CAUTION if notes else None,
-        },
+        "hazards": hazards_block(present),
         "flags": flags,
     }
 

@@ -22,10 +22,10 @@ import math
 
 from screening import MODEL_VERSION
 from screening.crystal import CellSpec
+from screening.structure import lattice_from_bond_length
 
-_CUBIC_A_PER_BOND = {"zincblende": 4.0 / math.sqrt(3.0), "diamond": 4.0 / math.sqrt(3.0),
-                     "rocksalt": 2.0}
-"""Cubic lattice constant per unit bond length of each cubic structure."""
+_CUBIC = ("zincblende", "diamond", "rocksalt")
+"""Cubic structures, built from one lattice constant."""
 
 
 def _binary_cell(formula: str) -> CellSpec:
@@ -44,12 +44,12 @@ def _binary_cell(formula: str) -> CellSpec:
         label = (f"{formula} wurtzite (P6_3mc), measured a = {a:g} A, c = {c:g} A, "
                  f"u for four equal bonds (d = {bond:.5f} A); {tail}")
         return CellSpec("wurtzite", compound.cation, compound.anion, a, c, label)
-    if structure in _CUBIC_A_PER_BOND and math.isfinite(a):
+    if structure in _CUBIC and math.isfinite(a):
         label = f"{formula} {structure}, measured a = {a:g} A (d = {bond:.5f} A); {tail}"
         return CellSpec(structure, compound.cation, compound.anion, a, None, label)
-    shape = structure if structure in _CUBIC_A_PER_BOND else "zincblende"
+    shape = structure if structure in _CUBIC else "zincblende"
     known = f"observed {structure}" if structure else "structure not known"
-    a = _CUBIC_A_PER_BOND[shape] * bond
+    a = float(lattice_from_bond_length(shape, bond)[0])
     label = (f"{formula} {shape} cell ({known}; no measured lattice constant): a = {a:.5f} A "
              f"from the estimated bond length d = {bond:.5f} A; {tail}")
     return CellSpec(shape, compound.cation, compound.anion, a, None, label)

@@ -3,7 +3,8 @@
 Data flow: measured reference data (`screening.reference`) and atomic term values
 (`screening.atoms`) in; arrays of model results out. The models use the measured
 nearest-neighbour distance in the compound's ambient structure where one is known, else the
-tetrahedral-radii estimate (`screening.radii`).
+tetrahedral-radii estimate (`screening.radii`); every compound also gets a lattice constant
+estimated from that estimate (`screening.lattice_estimate`).
 """
 
 from __future__ import annotations
@@ -21,6 +22,7 @@ from screening.coordination import BORDERLINE_HALF_WIDTH, predicted_coordination
 from screening.elements import VALENCE, has_filled_inner_d, period
 from screening.formula import Compound
 from screening.harrison import BondOrbitals, bond_orbitals
+from screening.lattice_estimate import LatticeEstimate, estimate_lattice
 from screening.phillips import PhillipsCalibration, PhillipsResult
 from screening.radii import RadiusFit, fit_radii
 from screening.reference import Measured, measured_compounds
@@ -50,6 +52,7 @@ class CatalogueTable:
     coordination_route: NDArray[np.object_]
     coordination_observed: NDArray[np.object_]
     radius_fit: RadiusFit
+    lattice_estimate: LatticeEstimate
 
     def index(self, formula: str) -> int:
         """Position of a normalised formula in the table."""
@@ -188,4 +191,6 @@ def catalogue_table() -> CatalogueTable:
             dtype=object,
         ),
         radius_fit=fit,
+        lattice_estimate=estimate_lattice(geo_structure, coordination, d_estimated,
+                                          fit.loo_rms_angstrom),
     )

@@ -11,8 +11,8 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass
 
-from screening.elements import FAMILIES, VALENCE, atomic_number
-from screening.errors import FormulaSyntaxError, NotOctetCompoundError
+from screening.elements import ATOMIC_NUMBER, FAMILIES, VALENCE, atomic_number
+from screening.errors import FormulaSyntaxError, NotOctetCompoundError, UnknownElementError
 
 MAX_FORMULA_LENGTH = 64
 """Longest formula text accepted, in characters."""
@@ -62,15 +62,19 @@ def split_formula(text: str) -> list[tuple[str, float]]:
         )
     try:
         composition = Composition(stripped)
-    except (ValueError, KeyError) as exc:
+    except (ValueError, KeyError):
         raise FormulaSyntaxError(
-            f"cannot read '{stripped}' as a formula ({exc}); write element symbols with their "
-            "case and optional amounts, e.g. GaAs or In0.53Ga0.47As"
+            f"cannot read '{stripped}' as a formula: write element symbols with a capital "
+            "first letter and optional amounts, e.g. GaAs or In0.53Ga0.47As"
         ) from None
     pairs: list[tuple[str, float]] = []
     for species, amount in composition.items():
         symbol = str(getattr(species, "symbol", species))
-        atomic_number(symbol)
+        if symbol not in ATOMIC_NUMBER:
+            raise UnknownElementError(
+                f"cannot read '{stripped}' as a formula: '{symbol}' is not a chemical element "
+                "symbol from H to Rn; symbols are case-sensitive, e.g. Ga, As, Zn"
+            )
         if not amount > 0:
             raise FormulaSyntaxError(f"the amount of {symbol} in '{stripped}' must be positive")
         pairs.append((symbol, float(amount)))

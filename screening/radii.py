@@ -41,6 +41,11 @@ SIXFOLD_TO_FOURFOLD_ANGSTROM: Final[float] = BOND_VALENCE_B_ANGSTROM * float(np.
 """Shortening of a bond from sixfold to fourfold coordination at fixed bond-valence sum."""
 
 
+def sixfold_bond_length(d_tetrahedral_angstrom: ArrayLike) -> NDArray[np.float64]:
+    """The sixfold (rocksalt) bond length of a tetrahedral one at the same bond-valence sum."""
+    return np.asarray(d_tetrahedral_angstrom, dtype=float) + SIXFOLD_TO_FOURFOLD_ANGSTROM
+
+
 @dataclass(frozen=True)
 class RadiusFit:
     """Fitted tetrahedral radii and the leave-one-out error of the bond lengths they give."""
@@ -54,6 +59,11 @@ class RadiusFit:
     def loo_mae_angstrom(self) -> float:
         """Mean absolute leave-one-out error, angstrom."""
         return float(np.mean(np.abs(self.loo_estimate_angstrom - self.measured_angstrom)))
+
+    @property
+    def loo_rms_angstrom(self) -> float:
+        """Root-mean-square leave-one-out error, angstrom (the estimate's uncertainty)."""
+        return float(np.sqrt(np.mean((self.loo_estimate_angstrom - self.measured_angstrom) ** 2)))
 
     @property
     def loo_max_angstrom(self) -> float:

@@ -5,8 +5,9 @@ The engine, the API documentation and the UI's column headers all read this tabl
 
 from __future__ import annotations
 
+from collections.abc import Mapping
 from dataclasses import dataclass
-from typing import Final
+from typing import Any, Final
 
 
 @dataclass(frozen=True)
@@ -18,6 +19,23 @@ class Quantity:
     unit: str
     route: str
     reference: str
+    detail_key: str | None = None
+    """Dotted report path of a per-compound word on the route (which bond length, which
+    structure), shown after the route; None where the route is the same for every compound."""
+
+    def route_in(self, report: Mapping[str, Any]) -> str:
+        """The route for one report: the declared route, plus its per-compound detail."""
+        detail = report_value(report, self.detail_key) if self.detail_key else None
+        return f"{self.route} ({detail})" if detail else self.route
+
+
+def report_value(report: Any, dotted: str) -> Any:
+    """Value at a dotted path of a report (`phillips.predictive.ionicity`); None if absent."""
+    for part in dotted.split("."):
+        if not isinstance(report, Mapping):
+            return None
+        report = report.get(part)
+    return report
 
 
 PVV = (
@@ -25,23 +43,30 @@ PVV = (
     "J. A. Van Vechten, Phys. Rev. 182, 891 (1969)"
 )
 BOND_ORBITAL = "W. A. Harrison, Phys. Rev. B 24, 5835 (1981)"
+RADII = "tetrahedral radii: calibration of ours; Pauling (1960) radii as prior"
+EH_ROUTE = "Eh = 39.74 d^-2.48 (d in Å) from the bond length the models used"
 
 QUANTITIES: Final[tuple[Quantity, ...]] = (
     Quantity("lattice_constant_angstrom", "Lattice constant a", "Å", "measured",
              "seed data (source per value)"),
+    Quantity("lattice_constant_estimated_angstrom", "Lattice constant a (estimated)", "Å",
+             "a = 4d/√3 (zincblende), 2d (rocksalt), √(8/3) d (ideal wurtzite) from the "
+             "estimated bond length", f"{RADII}; I. D. Brown and D. Altermatt, Acta Cryst. B 41, "
+             "244 (1985) for sixfold bonds", detail_key="lattice_estimate.route"),
     Quantity("bond_length_angstrom", "Bond length (measured)", "Å",
              "from the measured lattice constant and structure", "seed data"),
     Quantity("bond_length_estimated_angstrom", "Bond length (estimated)", "Å",
-             "sum of fitted tetrahedral radii",
-             "calibration of ours; Pauling (1960) radii as prior"),
-    Quantity("phillips.spectroscopic.homopolar_gap_eV", "Eh", "eV",
-             "Eh = 39.74 d^-2.48", PVV),
+             "sum of fitted tetrahedral radii", RADII),
+    Quantity("phillips.spectroscopic.homopolar_gap_eV", "Eh (spectroscopic)", "eV", EH_ROUTE, PVV,
+             detail_key="bond_length_source"),
     Quantity("phillips.spectroscopic.heteropolar_gap_eV", "C (spectroscopic)", "eV",
              "from eps_inf with the plasma energy, D and A corrections", PVV),
     Quantity("phillips.spectroscopic.average_gap_eV", "Eg (spectroscopic)", "eV",
              "Eg^2 = Eh^2 + C^2", PVV),
     Quantity("phillips.spectroscopic.ionicity", "fi (spectroscopic)", "",
              "fi = C^2 / Eg^2", PVV),
+    Quantity("phillips.predictive.homopolar_gap_eV", "Eh (predictive)", "eV", EH_ROUTE, PVV,
+             detail_key="bond_length_source"),
     Quantity("phillips.predictive.heteropolar_gap_eV", "C (predictive)", "eV",
              "screened Coulomb difference of the cores", PVV),
     Quantity("phillips.predictive.average_gap_eV", "Eg (predictive)", "eV",
@@ -60,7 +85,7 @@ QUANTITIES: Final[tuple[Quantity, ...]] = (
     Quantity("harrison.antibonding_eV", "Antibonding level", "eV",
              "mean hybrid energy + sqrt(V2^2 + V3^2)", BOND_ORBITAL),
     Quantity("coordination.predicted", "Coordination (predicted)", "",
-             "fi against the critical ionicity 0.785", PVV),
+             "fi against the critical ionicity 0.785", PVV, detail_key="coordination.route"),
 )
 
 BY_KEY: Final[dict[str, Quantity]] = {q.key: q for q in QUANTITIES}

@@ -14,9 +14,11 @@ from screening.errors import BondgapInputError
 from screening.evaluate import CatalogueTable, catalogue_table
 from screening.formula import parse_compound
 from screening.gaps import GapsAt, gap_model, gaps_at
-from screening.hazards import CAUTION, hazard_notes
+from screening.hazards import hazards_block
+from screening.lattice_estimate import LatticeEstimate
 from screening.phillips import PhillipsResult
 from screening.reference import Measured
+from screening.suggest import with_suggestions
 
 
 def _float(value: Any) -> float | None:
@@ -95,11 +97,21 @@ def _tight_binding(i: int) -> dict[str, Any]:
     }
 
 
+def _lattice_estimate(estimate: LatticeEstimate, i: int) -> dict[str, Any]:
+    return {
+        "a_angstrom": _float(estimate.a_angstrom[i]),
+        "c_angstrom": _float(estimate.c_angstrom[i]),
+        "uncertainty_angstrom": _float(estimate.uncertainty_angstrom[i]),
+        "structure": str(estimate.structure[i]),
+        "route": estimate.route(i),
+    }
+
+
 def _report(table: CatalogueTable, i: int, at: GapsAt) -> dict[str, Any]:
     compound = table.compounds[i]
     measured = table.measured[i]
     bonds = table.bonds
-    notes = hazard_notes(compound.elements)
+    estimate = table.lattice_estimate
     return {
         "formula": compound.formula,
         "family": compound.family,
@@ -112,9 +124,15 @@ def _report(table: CatalogueTable, i: int, at: GapsAt) -> dict[str, Any]:
         },
         "lattice_constant_angstrom": _float(table.lattice_constant_angstrom[i]),
         "lattice_c_angstrom": _float(table.lattice_c_angstrom[i]),
+        "lattice_constant_source": (
+            "measured" if math.isfinite(table.lattice_constant_angstrom[i]) else "estimate"),
+        "lattice_constant_estimated_angstrom": _float(estimate.a_angstrom[i]),
+        "lattice_estimate": _lattice_estimate(estimate, i),
         "bond_length_angstrom": _float(table.bond_length_measured_angstrom[i]),
         "bond_length_estimated_angstrom": _float(table.bond_length_estimated_angstrom[i]),
         "bond_length_used_angstrom": _float(table.bond_length_used_angstrom[i]),
+        "bond_length_source": (
+            "measured" if math.isfinite(table.bond_length_measured_angstrom[i]) else "estimate"),
         "measured": {
             "band_gap_eV": _measured(measured.get("band_gap")),
             "gap_kind": _measured(measured.get("gap_kind")),
@@ -146,18 +164,20 @@ def _report(table: CatalogueTable, i: int, at: GapsAt) -> dict[str, Any]:
             "route": table.coordination_route[i],
             "observed": table.coordination_observed[i],
         },
-        "hazards": {
-            "elements": [n.element for n in notes if n.toxic],
-            "notes": [{"element": n.element, "toxic": n.toxic, "note": n.note,
-                       "precursors": n.precursors} for n in notes],
-            "caution": CAUTION if notes else None,
-        },
+        "hazards": hazards_block(compound.elements),
     }
 
 
 def normalise_formula(text: str) -> str:
-    """Normalised formula of an octet binary (raises `BondgapInputError` subclasses)."""
-    return parse_compound(text).formula
+    """Normalised formula of an octet binary (raises `BondgapInputError` subclasses).
+
+    The error says "did you mean ...?" where the text re-cased as element symbols is a
+    compound ("INP" -> InP; `screening.suggest`).
+    """
+    try:
+        return parse_compound(text).formula
+    except BondgapInputError as exc:
+        raise with_suggestions(exc, text, lambda c: parse_compound(c).formula) from None
 
 
 def compound_report(formula: str, temperature_K: float = 300.0) -> dict[str, Any]:

@@ -77,6 +77,27 @@ def volume_per_pair(structure: ArrayLike, a_angstrom: ArrayLike, c_angstrom: Arr
     return cubic_lattice_constant(structure, a_angstrom, c_angstrom) ** 3 / 4.0
 
 
+def lattice_from_bond_length(
+    structure: ArrayLike, d_angstrom: ArrayLike
+) -> tuple[NDArray[np.float64], NDArray[np.float64]]:
+    """Lattice constants (a, c) in angstrom of a crystal of bond length d (`bond_length` inverted).
+
+    a = 4 d / sqrt(3) for diamond and zincblende, 2 d for rocksalt; wurtzite with the ideal
+    c/a = sqrt(8/3) (u = 3/8): a = sqrt(8/3) d, c = sqrt(8/3) a. c is NaN for cubic
+    structures; a and c are NaN for ``other``.
+    """
+    s = np.asarray(structure)
+    d = np.asarray(d_angstrom, dtype=float)
+    ideal = np.sqrt(8.0 / 3.0)
+    a = np.select(
+        [np.isin(s, ("diamond", "zincblende")), np.isin(s, OCTAHEDRAL), s == "wurtzite"],
+        [4.0 * d / np.sqrt(3.0), 2.0 * d, ideal * d],
+        np.nan,
+    )
+    c = np.where(s == "wurtzite", ideal * a, np.nan)
+    return a, c
+
+
 def tetrahedral_volume_per_pair(d_angstrom: ArrayLike) -> NDArray[np.float64]:
     """Volume per pair of a zincblende crystal of bond length d: (16 / 3 sqrt 3) d^3."""
     d = np.asarray(d_angstrom, dtype=float)

@@ -14,7 +14,6 @@ from app.finder_payload import match_payload
 from app.numbers import fixed, round_estimate, thickness_text
 from app.views import caution_line
 from screening.epitaxy import GEOMETRIES
-from screening.hazards import toxic_elements
 
 
 def register(sub: argparse._SubParsersAction) -> None:
@@ -88,8 +87,7 @@ def render_text(payload: dict[str, Any]) -> str:
     more = payload["count"] - payload["shown"]
     lines.append(f"{payload['count']} compositions" + (f"; {more} more not shown (--limit)"
                                                        if more else ""))
-    caution = caution_line(toxic_elements(
-        {e for m in payload["matches"] for e in m["fractions"]}))
+    caution = caution_line({e for m in payload["matches"] for e in m["fractions"]})
     if caution:
         lines.append(f"Caution: {caution}.")
     return "\n".join(lines)

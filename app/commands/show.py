@@ -62,7 +62,7 @@ def render_text(report: dict[str, Any]) -> str:
                 value += f" ({line.wavelength_text})"
             source = f"; {line.source}" if line.source else ""
             lines.append(f"  {line.label:<{width}}  {value:<14}  [{line.route}{source}]")
-    caution = views.caution_line(report.get("hazards", {}).get("elements") or ())
+    caution = views.caution_line(report.get("hazards", {}).get("caution_elements") or ())
     if caution:
         lines += ["", f"Caution: {caution}."]
     return "\n".join(lines)

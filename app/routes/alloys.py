@@ -21,7 +21,6 @@ from screening.alloys import design_space_systems
 from screening.alloys.query import DEFAULT_FAMILIES
 from screening.epitaxy import GEOMETRIES, MISMATCH_CONVENTION
 from screening.errors import BondgapInputError
-from screening.hazards import toxic_elements
 
 router = APIRouter()
 
@@ -166,8 +165,8 @@ def finder_page(request: Request, session: SessionDep) -> Response:
                 chart=finder_chart(run, payload["matches"]),
                 detail_query="?" + urlencode(on),
                 json_url="/api/match?" + urlencode(query.as_params(), doseq=True),
-                caution=caution_line(toxic_elements(
-                    {e for m in payload["matches"] for e, f in m["fractions"].items() if f})))
+                caution=caution_line(
+                    {e for m in payload["matches"] for e, f in m["fractions"].items() if f}))
     return request.app.state.templates.TemplateResponse(
         request, "finder.html", context, status_code=status)
 

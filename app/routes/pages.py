@@ -10,6 +10,7 @@ from fastapi.responses import RedirectResponse, Response
 
 from app import gap_views, queries, views
 from app.accuracy import accuracy_payload
+from app.candidates import elements_of
 from app.columns import COLUMNS
 from app.deps import SessionDep, TableQueryDep, TemperatureDep
 from app.page_extras import report_extras, table_extras
@@ -100,7 +101,7 @@ def compound_page(
         "sections": [*views.report_sections(report), gap_views.tight_binding_section(report)],
         "charts": charts,
         "model_limits": MODEL_LIMITS,
-        "hazard_caution": views.caution_line(report.get("hazards", {}).get("elements") or ()),
+        "hazard_caution": views.caution_line(elements_of(report)),
         "hazard_notes": report.get("hazards", {}).get("notes") or [],
         "json_url": "/api/compounds/" + quote(report["formula"]) + at,
         "bands_url": "/api/compounds/" + quote(report["formula"]) + "/bands",

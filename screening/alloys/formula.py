@@ -18,9 +18,10 @@ import numpy as np
 from numpy.typing import ArrayLike
 
 from screening.alloys.sites import split_sites
-from screening.alloys.systems import AlloySystem, alloy_system
-from screening.errors import CompositionError
+from screening.alloys.systems import AlloySystem, alloy_system, parse_system
+from screening.errors import BondgapInputError, CompositionError
 from screening.formula import Compound, parse_compound, split_formula
+from screening.suggest import with_suggestions
 
 SITE_SUM_TOLERANCE: Final[float] = 2e-3
 """Largest accepted |sum of a site's fractions - 1| (formulas rounded to three decimals)."""
@@ -161,8 +162,29 @@ def parse_material(text: str) -> Compound | Alloy:
     :func:`parse_alloy`.
 
     Raises:
-        BondgapInputError: A subclass naming what is wrong (see the two parsers).
+        BondgapInputError: A subclass naming what is wrong (see the two parsers), with
+            "did you mean ...?" where the text re-cased as element symbols is a formula or an
+            alloy system ("gaas" -> GaAs; `screening.suggest`).
     """
+    try:
+        return _read_material(text)
+    except BondgapInputError as exc:
+        raise with_suggestions(exc, text, _suggestion) from None
+
+
+def _suggestion(candidate: str) -> str:
+    """What to suggest for a re-cased text: its formula, or an alloy system with an example."""
+    try:
+        return _read_material(candidate).formula
+    except CompositionError:
+        system = parse_system(candidate)
+        n_cat = len(system.cations)
+        even = [1.0 / n_cat] * n_cat + [1.0 / (len(system.elements) - n_cat)] * (
+            len(system.elements) - n_cat)
+        return f"{system.name} with fractions (e.g. {format_alloy(system, even)})"
+
+
+def _read_material(text: str) -> Compound | Alloy:
     pairs = split_formula(text)
     symbols = {symbol for symbol, _ in pairs}
     amounts = [amount for _, amount in pairs]

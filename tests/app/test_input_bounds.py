@@ -20,7 +20,7 @@ def raw_json(text: bytes) -> dict:
 BAD = [
     # ids that SQLite cannot hold, or that cannot be ids
     ("get", "/api/shortlists/99999999999999999999", {}, 422, "shortlist_id"),
-    ("get", "/api/shortlists/0", {}, 422, "greater than or equal to 1"),
+    ("get", "/api/shortlists/0", {}, 422, "must be at least 1"),
     ("delete", "/api/shortlists/-3?confirm=yes", {}, 422, "shortlist_id"),
     ("get", "/shortlists/99999999999999999999", {}, 422, "shortlist_id"),
     ("post", "/shortlists/add", {"data": {"formula": "GaAs", "shortlist": "²"}}, 400,

@@ -5,7 +5,7 @@ from bs4 import BeautifulSoup
 
 from screening.catalogue import catalogue_formulas
 
-CAUTION_TAIL = "toxic; follow the safety data sheets, local codes and your site's safety rules"
+CAUTION_TAIL = "follow the safety data sheets, local codes and your site's safety rules"
 
 
 def soup_of(response) -> BeautifulSoup:
@@ -64,6 +64,24 @@ def test_table_caution_names_the_toxic_elements_shown(client) -> None:
     soup = soup_of(client.get("/compounds?family=III-V"))
     caution = soup.select_one("footer .caution").get_text(" ", strip=True)
     assert "As" in caution and CAUTION_TAIL in caution
+
+
+@pytest.mark.parametrize(("formula", "hydride"), [
+    ("InP", "phosphine (PH3)"), ("GaP", "phosphine (PH3)"), ("AlP", "phosphine (PH3)"),
+    ("GaN", "ammonia (NH3)"),
+])
+def test_compounds_grown_from_hazardous_hydrides_show_the_caution(
+    client, formula: str, hydride: str,
+) -> None:
+    # Phosphine is GHS H330 "fatal if inhaled", ammonia H331 "toxic if inhaled" (Regulation
+    # (EC) No 1272/2008, Annex VI; from memory): the page, the table flag and the table's
+    # caution line name them although In, Ga, Al, P and N are not toxic elements themselves.
+    box = soup_of(client.get(f"/compounds/{formula}")).select_one(".caution-box").text
+    assert hydride in box and "safety data sheets" in box and "CLP" in box
+    table = soup_of(client.get("/compounds"))
+    row = table.select_one(f"#compound-table tr[data-formula='{formula}']")
+    assert row.select_one(".hazard-mark") is not None
+    assert hydride in table.select_one("footer .caution").get_text(" ", strip=True)
 
 
 def test_compound_page_shows_numbers_with_unit_route_and_source(client) -> None:
@@ -129,3 +147,39 @@ def test_markup_in_input_is_escaped(client) -> None:
     response = client.get("/compounds?family=<b>bold</b>")
     assert response.status_code == 400
     assert "<b>" not in response.text and "&lt;b&gt;" in response.text
+
+
+def quantity_rows(soup: BeautifulSoup) -> dict[str, list[str]]:
+    return {
+        row.th.get_text(strip=True): [c.get_text(" ", strip=True) for c in row.find_all("td")]
+        for row in soup.select("table.quantities tbody tr") if row.th
+    }
+
+
+@pytest.mark.parametrize("formula", ["BSb", "AlBi", "TlP"])
+def test_hypothetical_binary_shows_estimated_eh_and_lattice_constant(client, formula) -> None:
+    rows = quantity_rows(soup_of(client.get(f"/compounds/{formula}")))
+    eh = rows["Eh (predictive)"]
+    assert eh[0] != "—" and eh[2].endswith("bond length the models used (estimate)")
+    assert "Van Vechten" in eh[3]
+    lattice = rows["Lattice constant a (estimated)"]
+    assert lattice[0] != "—" and lattice[1] == "Å"
+    assert "estimate: a = 4d/√3 for zincblende" in lattice[2] and "Pauling" in lattice[3]
+    assert rows["Lattice constant a"][0] == "—"  # nothing measured, and it says so
+
+
+def test_table_api_and_csv_show_the_estimated_lattice_constant_marked(client) -> None:
+    row = soup_of(client.get("/compounds")).select_one("#compound-table tr[data-formula='BSb']")
+    cell = row.select_one("td[data-key='lattice_constant_angstrom']")
+    assert float(cell["data-value"]) > 5.0 and "est." in cell.get_text() and "±" in cell.get_text()
+    api = {r["formula"]: r for r in client.get("/api/compounds").json()["rows"]}
+    assert api["BSb"]["lattice_constant_source"] == "estimate"
+    assert api["GaAs"]["lattice_constant_source"] == "measured"
+    assert api["GaAs"]["lattice_constant_angstrom"] == pytest.approx(5.65325)
+    assert api["GaAs"]["lattice_constant_uncertainty_angstrom"] is None
+    lines = client.get("/api/compounds.csv").text.splitlines()
+    header = lines[0].split(",")
+    bsb = next(line.split(",") for line in lines if line.startswith("BSb,"))
+    assert bsb[header.index("lattice_constant_source")] == "estimate"
+    assert float(bsb[header.index("lattice_constant_angstrom")]) == pytest.approx(
+        api["BSb"]["lattice_constant_angstrom"])

@@ -152,6 +152,33 @@ def test_finder_page_cautions_for_hazardous_matches(client) -> None:
     assert "As" in caution and "safety data sheets" in caution
 
 
+def test_finder_and_shortlist_caution_for_phosphine_and_ammonia(client) -> None:
+    # Phosphine GHS H330, ammonia H331 (Regulation (EC) No 1272/2008, Annex VI; from memory).
+    soup = soup_of(client.get("/alloys", params={"system": "InGaP", "on": "GaAs", "gap": "1.9"}))
+    assert "phosphine" in soup.select_one("footer .caution").get_text()
+    url = client.post("/shortlists", data={"name": "nitride and phosphide"},
+                      follow_redirects=False).headers["location"]
+    client.post(url + "/items", data={"formulas": "InP GaN", "note": ""})
+    page = soup_of(client.get(url))
+    box = page.select_one("#hazard-box").get_text(" ", strip=True)
+    assert "phosphine" in box and "ammonia" in box and "safety data sheets" in box
+    assert all(r.select_one(".hazard-mark")
+               for r in page.select("#candidates tbody tr[data-formula]"))
+
+
+def test_shortlist_shows_the_estimated_lattice_constant_of_a_hypothetical(client) -> None:
+    url = client.post("/shortlists", data={"name": "never grown"},
+                      follow_redirects=False).headers["location"]
+    client.post(url + "/items", data={"formulas": "BSb GaAs", "note": ""})
+    rows = soup_of(client.get(url)).select("#candidates tbody tr[data-formula]")
+    cells = {r["data-formula"]: r.select_one("td[data-key='lattice_constant_angstrom']")
+             for r in rows}
+    assert cells["GaAs"].get_text(strip=True) == f"{5.65325:.4f}"  # measured (seed data), as it is
+    text = cells["BSb"].get_text(" ", strip=True)
+    assert "±" in text and text.endswith("est.")
+    assert "zincblende" in cells["BSb"].select_one("abbr")["title"]
+
+
 def test_gaps_that_are_not_measured_carry_their_uncertainty(client) -> None:
     # An estimate (BSb has no measured gap) and an alloy gap are never shown without their ±;
     # a measured gap (GaAs) is shown as measured.

@@ -84,14 +84,25 @@ def test_valence_and_deepest_core_levels_named_against_nist(symbol: str) -> None
 
 
 def test_overall_agreement_with_nist_is_far_inside_the_target() -> None:
-    # Measured over all 86 atoms and every occupied orbital: max |difference| 0.039 meV
-    # (source: NIST_SOURCE, which rounds to 1e-6 hartree = 0.027 meV).
-    worst = max(
-        abs(atom_levels(sym).level(orb).energy_eV - e)
-        for sym in SYMBOLS
-        for orb, e in nist_levels_ev(sym).items()
-    )
-    assert worst < 0.1e-3
+    # Measured over all 86 atoms and every occupied orbital (source: NIST_SOURCE, which rounds
+    # to 1e-6 hartree = 0.027 meV); docs/atoms.md quotes: all orbitals 0.039 meV (Au 3s), 1s
+    # 0.027 meV (Hf), occupied valence s 0.014 meV (V 4s), occupied valence p 0.014 meV (Se 4p).
+    def worst(pick) -> tuple[float, str, str]:
+        return max((abs(atom_levels(sym).level(orb).energy_eV - e) * 1e3, sym, orb)
+                   for sym in SYMBOLS for orb, e in nist_levels_ev(sym).items() if pick(sym, orb))
+
+    def valence(kind: str):
+        return lambda sym, orb: any(
+            shell.label == orb and shell.occupation > 0 and orb.endswith(kind)
+            for shell in valence_s_p(atom_levels(sym).Z))
+
+    for (value, sym, orb), quoted, where in (
+        (worst(lambda sym, orb: True), 0.039, ("Au", "3s")),
+        (worst(lambda sym, orb: orb == "1s"), 0.027, ("Hf", "1s")),
+        (worst(valence("s")), 0.014, ("V", "4s")),
+        (worst(valence("p")), 0.014, ("Se", "4p")),
+    ):
+        assert value == pytest.approx(quoted, abs=0.001) and (sym, orb) == where
 
 
 # NIST SRD 141 LDA total energies in hartree, quoted from memory.
@@ -152,8 +163,16 @@ def test_palladium_valence_s_and_p_are_the_empty_5s_and_5p() -> None:
 # --- the solver reproduces the table --------------------------------------------------------
 
 
-@pytest.mark.parametrize("symbol", ["H", "C", "Zn", "Ag", "Hg"])
+QUICK_SOLVES = ("H", "C", "Zn", "Ag", "Hg")
+"""Atoms re-solved in a quick run (`-m "not slow"`); the full suite re-solves all 86."""
+
+
+@pytest.mark.parametrize("symbol", [
+    s if s in QUICK_SOLVES else pytest.param(s, marks=pytest.mark.slow) for s in SYMBOLS
+])
 def test_solver_reproduces_the_committed_table(symbol: str) -> None:
+    # Every one of the 86 atoms is solved again and must give the committed table (about 20 s
+    # in all; part of every full run and of CI).
     solved = solve_atom(symbol)
     stored = atom_levels(symbol)
     assert (solved.element, solved.Z, solved.configuration) == (

@@ -1,17 +1,23 @@
 import pytest
 
+from screening.alloy_report import alloy_report
+from screening.catalogue import catalogue
 from screening.elements import ATOMIC_NUMBER
 from screening.errors import OutOfRangeError, UnknownElementError
 from screening.hazards import (
     CAUTION,
     ROHS_RESTRICTED,
     ROHS_SOURCE,
+    caution_elements,
+    caution_line,
     excluded,
     hazard_notes,
+    hazardous_precursors,
     parse_excluded,
     rohs_restricted,
     toxic_elements,
 )
+from screening.report import compound_report
 
 
 def test_rohs_annex_ii_elements() -> None:
@@ -65,3 +71,54 @@ def test_parse_excluded_reads_lists_and_refuses_non_elements() -> None:
         parse_excluded("as")
     with pytest.raises(OutOfRangeError, match="at most"):
         parse_excluded(list(ATOMIC_NUMBER)[:41])
+
+
+# The anions whose common growth precursor is a hydride gas, with the hydride (common practice,
+# no single source) and its GHS acute-toxicity statement (Regulation (EC) No 1272/2008 (CLP),
+# Annex VI, or the suppliers' safety data sheets; from memory): arsine, phosphine, stibine,
+# hydrogen selenide, hydrogen telluride and hydrogen sulfide H330 "fatal if inhaled"; ammonia
+# H331 "toxic if inhaled".
+HYDRIDE_ANIONS = {
+    "As": ("arsine", "H330"), "P": ("phosphine", "H330"), "Sb": ("stibine", "H330"),
+    "Se": ("hydrogen selenide", "H330"), "Te": ("hydrogen telluride", "H330"),
+    "S": ("hydrogen sulfide", "H330"), "N": ("ammonia", "H331"),
+}
+
+
+@pytest.mark.parametrize("anion", sorted(HYDRIDE_ANIONS))
+def test_every_catalogue_compound_grown_from_a_hydride_gets_the_caution(anion: str) -> None:
+    name, code = HYDRIDE_ANIONS[anion]
+    compounds = [c for c in catalogue() if c.anion == anion]
+    assert compounds
+    for compound in compounds:
+        line = caution_line(compound.elements)
+        assert line is not None and name in line and "safety data sheets" in line, compound
+        assert anion in caution_elements(compound.elements)
+        (precursor,) = [p for p in hazardous_precursors([anion])]
+        assert code in precursor.ghs
+
+
+@pytest.mark.parametrize("formula", ["InP", "GaP", "AlP", "GaN"])
+def test_issue_compounds_without_toxic_elements_get_the_caution_in_their_report(
+    formula: str,
+) -> None:
+    hazards = compound_report(formula)["hazards"]
+    assert hazards["elements"] == []  # no toxic element of their own
+    assert hazards["caution_line"] and "local codes" in hazards["caution_line"]
+    assert set(hazards["caution_elements"]) >= {formula[-1]}
+    assert all("CLP" in p["source"] for p in hazards["precursors"])
+
+
+def test_alloy_report_carries_the_precursor_caution() -> None:
+    hazards = alloy_report("In0.53Ga0.47As0.5P0.5")["hazards"]
+    assert "arsine" in hazards["caution_line"] and "phosphine" in hazards["caution_line"]
+    assert hazards["caution_elements"] == ["In", "Ga", "As", "P"]
+
+
+def test_caution_names_toxic_elements_first_and_groups_precursors_by_hazard() -> None:
+    line = caution_line(["Ga", "As"])
+    assert line is not None
+    assert line.startswith("contains As: toxic; growth precursors fatal if inhaled: arsine")
+    assert "catches fire spontaneously in air: trimethylgallium (TMGa)" in line
+    assert caution_line(["Na", "Cl"]) is None
+    assert caution_elements(["Na", "Cl"]) == []

@@ -29,7 +29,8 @@ II_VI = {
 I_VII = {c + a for c in ("Li", "Na", "K", "Rb", "Cu", "Ag") for a in ("F", "Cl", "Br", "I")}
 CATALOGUE = IV_IV | III_V | II_VI | I_VII
 
-# The 39 compounds of shared/physics.md Table B.
+# The 39 tetrahedral compounds whose room-temperature data the handbooks tabulate (e.g.
+# O. Madelung, Semiconductors: Data Handbook, 3rd ed., Springer 2004; from memory).
 TABLE_B = (
     "C Si Ge Sn SiC BN BP AlN AlP AlAs AlSb GaN GaP GaAs GaSb InN InP InAs InSb "
     "BeO BeS BeSe BeTe MgTe ZnO ZnS ZnSe ZnTe CdS CdSe CdTe HgS HgSe HgTe "
@@ -144,7 +145,8 @@ def test_wurtzite_rows_have_c_and_a_sensible_c_over_a(compounds) -> None:
 
 
 def test_wurtzite_volume_matches_zincblende_polytype(compounds) -> None:
-    # Same volume per pair: a_eq = (sqrt(3) a^2 c)^(1/3) (physics.md 1.0) within 1 %.
+    # Same volume per pair, a_eq = (sqrt(3) a^2 c)^(1/3) (the hexagonal cell of area
+    # sqrt(3) a^2 / 2 and height c holds two pairs; the cube a^3 holds four), within 1 %.
     checked = 0
     for formula, props in compounds.items():
         if props["structure"].value == "wurtzite" and "zincblende_lattice_a" in props:

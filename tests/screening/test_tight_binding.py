@@ -32,8 +32,9 @@ from screening.tight_binding import (
 
 # (name, eps_s_anion, eps_p_anion, eps_s_cation, eps_p_cation, d in angstrom, source)
 COMPOUNDS = [
-    # Mann (1967) Hartree-Fock term values as tabulated by Harrison (1999 book), quoted in
-    # physics.md H11; d from a = 3.5668 / 5.431 angstrom (from memory).
+    # Mann (1967) Hartree-Fock term values as tabulated in W. A. Harrison, Elementary
+    # Electronic Structure (World Scientific, 1999), Table 1-1 (from memory); d from
+    # a = 3.5668 / 5.431 angstrom (from memory).
     ("C", -19.38, -11.07, -19.38, -11.07, 1.5445, "Mann 1967 via Harrison 1999"),
     ("Si", -14.79, -7.59, -14.79, -7.59, 2.3517, "Mann 1967 via Harrison 1999"),
     # NIST LDA levels (Kotochigova et al., Phys. Rev. A 55, 191 (1997)) from pymatgen
@@ -136,7 +137,8 @@ def test_bands_scale_as_d_minus_two_with_zero_term_values(scale: float) -> None:
 
 @pytest.mark.parametrize("row", COMPOUNDS, ids=IDS)
 def test_gamma_eigenvalues_equal_closed_forms(row: tuple) -> None:
-    # two-level closed forms at Gamma (physics.md 1.3; Chadi & Cohen 1975)
+    # two-level closed forms at Gamma (D. J. Chadi and M. L. Cohen, Phys. Status Solidi B
+    # 68, 405 (1975))
     p = params_of([row])
     numeric = band_energies(GAMMA, p)[0, 0]
     cf = gamma_closed_form(p)
@@ -237,7 +239,8 @@ def test_homopolar_gamma_levels(row: tuple) -> None:
 @pytest.mark.parametrize("row", COMPOUNDS[:2], ids=IDS[:2])
 def test_homopolar_limit_pairs_all_bands_on_x_w(row: tuple) -> None:
     # diamond: every band is doubly degenerate on the square face X-W (non-symmorphic glide
-    # plus time reversal; the Si X point is doubly degenerate, physics.md 1.3)
+    # plus time reversal; the diamond X point is doubly degenerate: C. Herring, Phys. Rev. 52,
+    # 361 (1937), on the band sticking of non-symmorphic space groups)
     p = homopolar(row[1], row[2], row[5])
     t = np.linspace(0.0, 1.0, 9)[:, None]
     k_xw = np.array([1.0, 0.0, 0.0]) + t * np.array([0.0, 0.5, 0.0])
@@ -323,8 +326,9 @@ def test_gaps_do_not_depend_on_blocking(chunk: int) -> None:
 
 
 def test_si_cbm_lies_at_l_in_this_model() -> None:
-    # a known failing of the sp3 model (physics.md 1.3): Si comes out indirect with the CBM
-    # at L, not near X. This documents the model, not the crystal.
+    # a known failing of the sp3 model without an s* state (P. Vogl, H. P. Hjalmarson and
+    # J. D. Dow, J. Phys. Chem. Solids 44, 365 (1983), who add s* to fix it): Si comes out
+    # indirect with the CBM at L, not near X. This documents the model, not the crystal.
     g = gaps(params_of([COMPOUNDS[1]]))
     assert not g.direct[0]
     np.testing.assert_array_equal(g.cbm_k_2pi_over_a[0], SPECIAL_POINTS_2PI_OVER_A["L"])
