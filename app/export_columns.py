@@ -24,7 +24,10 @@ from app.export_values import (
     gap_source,
     gap_uncertainty,
     gap_value,
+    lattice_a,
+    lattice_route,
     lattice_source,
+    lattice_uncertainty,
     layer,
     thickness,
     thickness_shown,
@@ -91,8 +94,15 @@ CSV_COLUMNS: tuple[CsvColumn, ...] = (
     CsvColumn("gap_kind_source", lambda c: cited(c, "gap_kind"), "publication of the kind"),
     CsvColumn(
         "lattice_constant_angstrom",
-        averaged("lattice_constant_angstrom", "lattice_constant_angstrom"),
-        "lattice constant a, angstrom (alloys: Vegard, to the end points' decimals)",
+        lattice_a,
+        "lattice constant a, angstrom: measured as published; alloys: Vegard, to the end "
+        "points' decimals; a compound never measured: the estimate from its bond length, to "
+        "its uncertainty",
+    ),
+    CsvColumn(
+        "lattice_constant_uncertainty_angstrom",
+        lattice_uncertainty,
+        "uncertainty of an estimated lattice constant, angstrom (empty when measured)",
     ),
     CsvColumn(
         "lattice_c_angstrom",
@@ -101,16 +111,14 @@ CSV_COLUMNS: tuple[CsvColumn, ...] = (
     ),
     CsvColumn(
         "lattice_constant_route",
-        lambda c: (
-            c.report.get("lattice_route")
-            or ("measured" if c.report.get("lattice_constant_angstrom") is not None else None)
-        ),
-        "measured, or Vegard's law for an alloy",
+        lattice_route,
+        "measured; Vegard's law for an alloy; or estimate (from the estimated bond length)",
     ),
     CsvColumn(
         "lattice_constant_source",
         lattice_source,
-        "publication of a, or (alloys) Vegard's law and each end point's source",
+        "publication of a; (alloys) Vegard's law and each end point's source; or the route "
+        "of the estimate",
     ),
     CsvColumn(
         "bond_length_angstrom",

@@ -133,11 +133,47 @@ def _end_point_sources(c: Candidate, key: str) -> str:
     )
 
 
+def _lattice_estimate(c: Candidate) -> dict[str, Any] | None:
+    """A binary's estimated cell, where no lattice constant is measured (else None)."""
+    if c.report.get("alloy") or c.report.get("lattice_constant_angstrom") is not None:
+        return None
+    estimate = c.report.get("lattice_estimate") or {}
+    return estimate if estimate.get("a_angstrom") is not None else None
+
+
+def lattice_a(c: Candidate) -> float | None:
+    """Measured a as published; an alloy's Vegard a; else the estimate to its uncertainty."""
+    estimate = _lattice_estimate(c)
+    if estimate is None:
+        return averaged("lattice_constant_angstrom", "lattice_constant_angstrom")(c)
+    value, _, places = round_estimate(estimate["a_angstrom"], estimate["uncertainty_angstrom"])
+    return as_written(value, places)
+
+
+def lattice_uncertainty(c: Candidate) -> float | None:
+    """The uncertainty of an estimated a (empty for a measured or Vegard one)."""
+    estimate = _lattice_estimate(c)
+    if estimate is None:
+        return None
+    _, u, places = round_estimate(estimate["a_angstrom"], estimate["uncertainty_angstrom"])
+    return None if u is None else as_written(u, places)
+
+
+def lattice_route(c: Candidate) -> str | None:
+    """measured, Vegard's law (alloys) or estimate."""
+    if c.report.get("alloy"):
+        return c.report.get("lattice_route")
+    if c.report.get("lattice_constant_angstrom") is not None:
+        return "measured"
+    return "estimate" if _lattice_estimate(c) else None
+
+
 def lattice_source(c: Candidate) -> str | None:
-    """A binary's measured source; an alloy's Vegard route over its end points' sources."""
+    """Measured source; an alloy's Vegard route over its end points; an estimate's route."""
     if c.report.get("alloy"):
         return f"{VEGARD_SOURCE} ({_end_point_sources(c, 'lattice_constant_source')})"
-    return cited(c, "lattice_a")
+    estimate = _lattice_estimate(c)
+    return estimate["route"] if estimate else cited(c, "lattice_a")
 
 
 def eps_inf(c: Candidate) -> Any:

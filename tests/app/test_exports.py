@@ -238,3 +238,21 @@ def test_cells_zip_parses_back_with_the_engine_lattice_and_bond(client, shortlis
             poscar = Structure.from_str(archive.read(f"{formula}.POSCAR").decode(), fmt="poscar")
             assert poscar.lattice.a == pytest.approx(structure.lattice.a, abs=1e-6)
     assert "virtual-crystal" in archive.read("README.txt").decode()
+
+
+def test_a_compound_never_measured_exports_its_estimated_lattice_constant(client) -> None:
+    made = client.post("/api/shortlists", json={"name": "never measured"}).json()
+    url = f"/api/shortlists/{made['id']}"
+    client.post(url + "/items", json={"formulas": ["BSb", "GaAs"]})
+    rows = {r["formula"]: r for r in read_csv(client.get(url + "/export.csv").content)}
+    report = client.get("/api/compounds/BSb").json()
+    assert report["lattice_constant_source"] == "estimate"
+    bsb = rows["BSb"]
+    assert bsb["lattice_constant_route"] == "estimate"
+    assert bsb["lattice_constant_source"] == report["lattice_estimate"]["route"]
+    u = float(bsb["lattice_constant_uncertainty_angstrom"])
+    # Zincblende geometry: a = 4 d / sqrt(3) for bond length d (a derived identity).
+    d = report["bond_length_used_angstrom"]
+    assert abs(float(bsb["lattice_constant_angstrom"]) - 4 * d / 3**0.5) <= u / 2
+    assert rows["GaAs"]["lattice_constant_route"] == "measured"
+    assert rows["GaAs"]["lattice_constant_uncertainty_angstrom"] == ""
