@@ -126,8 +126,14 @@ def epitaxy_section(block: dict[str, Any]) -> Section:
     return Section(f"On {block['substrate']} (geometry {geometry['name']})", lines)
 
 
-def _epitaxy(session: Session, formula: str, on: str | None, geometry: str
-             ) -> tuple[dict[str, Any] | None, SubstrateSpec | None, str | None]:
+def epitaxy_for(session: Session, formula: str, on: str | None, geometry: str
+                ) -> tuple[dict[str, Any] | None, SubstrateSpec | None, str | None]:
+    """The layer block of `formula` on the substrate `on`, the substrate, or what is wrong.
+
+    Returns:
+        (block, substrate, None); (None, None, message) for an unknown or unsuitable
+        substrate; (None, None, None) without one.
+    """
     if not on:
         return None, None, None
     try:
@@ -141,7 +147,7 @@ def alloy_context(session: Session, report: dict[str, Any], *, on: str | None,
                   geometry: str | None) -> dict[str, Any]:
     """Template context of an alloy page (`alloy.html`)."""
     shape = geometry or "single-uncapped"
-    block, substrate, problem = _epitaxy(session, report["formula"], on, shape)
+    block, substrate, problem = epitaxy_for(session, report["formula"], on, shape)
     sections = [composition_section(report), lattice_section(report), *vca_sections(report)]
     if block:
         sections.insert(1, epitaxy_section(block))

@@ -70,7 +70,31 @@ def bands_payload(formula: str, points: int = DEFAULT_POINTS) -> dict[str, Any]:
         "k": (np.round(bs.k_2pi_over_a, 6) + 0.0).tolist(),  # + 0.0: no "-0.0"
         "label": point_labels,
         "bands_eV": (np.round(energies, 5) + 0.0).tolist(),
+        "valleys": _valleys(energies, point_labels),
     }
+
+
+VALLEYS: tuple[str, ...] = ("Γ", "X", "L")
+"""The conduction-band valleys a band-gap discussion names."""
+
+
+def _valleys(energies: np.ndarray, point_labels: list[str]) -> list[dict[str, Any]]:
+    """Each valley: the conduction band there above the VBM, and the direct gap there.
+
+    `energies` are relative to the valence-band maximum over the path, so the lowest conduction
+    level at a point is that valley's height above the VBM; the direct (vertical) gap subtracts
+    the highest valence level at the same point.
+    """
+    found = []
+    for name in VALLEYS:
+        if name not in point_labels:
+            continue
+        i = point_labels.index(name)
+        conduction = float(energies[i, N_VALENCE_BANDS])
+        found.append({"label": name, "above_vbm_eV": round(conduction, 6),
+                      "direct_gap_eV": round(conduction - float(energies[i, N_VALENCE_BANDS - 1]),
+                                             6)})
+    return found
 
 
 def header_lines(payload: dict[str, Any]) -> list[str]:

@@ -20,6 +20,7 @@ from app.conditions import Conditions
 from app.numbers import estimate_text, fixed, thickness_text, uncertainty_text
 from app.params import QueryError
 from app.views import dig
+from screening.epitaxy import MISMATCH_PERCENT_CONVENTION
 from screening.hazards import ROHS_SOURCE
 from screening.phillips import CRITICAL_IONICITY
 from screening.registry import BOND_ORBITAL, PVV, QUANTITIES, Quantity
@@ -93,7 +94,7 @@ def _layer_cell(c: Candidate, key: str, text: Callable[[Any], str]) -> Cell:
         return Cell(None, "—", "no layer block", c.layer_error or "no substrate set")
     value = c.layer.get(key)
     note = c.layer.get("critical_thickness_note") if key == "critical_thickness_nm" else ""
-    route = c.layer.get("mismatch_convention") if key == "mismatch" else note
+    route = MISMATCH_PERCENT_CONVENTION if key == "mismatch" else note
     source = (f"{c.layer['substrate']} a = {c.layer['substrate_a_angstrom']:.5g} Å; "
               f"{c.layer['geometry']['reference']}")
     return Cell(value, text(value), route or "", source)

@@ -20,6 +20,7 @@ from app.params import (
     parse_temperature,
 )
 from app.text_rules import MAX_ID
+from screening.hazards import ROHS_ANNEX_II
 
 
 def get_settings(request: Request) -> Settings:
@@ -79,7 +80,7 @@ def table_query(
     no_rohs: Annotated[
         bool,
         Query(description="Leave out compounds with an element restricted by RoHS "
-                          "(Directive 2011/65/EU Annex II: Cd, Hg, Pb)"),
+                          f"({ROHS_ANNEX_II})"),
     ] = False,
 ) -> TableQuery:
     """Read the table filters from the URL (shared by the table page and the API)."""

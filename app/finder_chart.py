@@ -26,6 +26,17 @@ MAX_SYSTEMS = 10
 
 POINTS_PER_EDGE = 81
 
+MAX_MARKED = 60
+"""Most matches marked on the chart: more would hide the curves they lie on."""
+
+
+def marked_rows(rows: list[dict[str, Any]], most: int = MAX_MARKED) -> list[dict[str, Any]]:
+    """At most `most` of the table's rows, evenly spread over it, the first (best) included."""
+    if len(rows) <= most:
+        return rows
+    picks = np.unique(np.round(np.linspace(0, len(rows) - 1, most)).astype(int))
+    return [rows[i] for i in picks]
+
 
 def _numbers(values: Iterable[float], digits: int = 5) -> list[float | None]:
     """JSON numbers rounded for the page; NaN and inf become None (a gap in a plotly line)."""
@@ -93,9 +104,9 @@ def _nan(value: float | None) -> float:
 
 
 def finder_chart(run: MatchRun, rows: list[dict[str, Any]]) -> dict[str, Any]:
-    """Chart data of the finder page: the matches shown in the table are highlighted."""
+    """Chart data of the finder page: up to `MAX_MARKED` of the table's matches marked."""
     systems, more = _chart_systems(run)
     chart = plane_chart(systems, lattice=run.substrate.lattice,
                         temperature_K=run.query.temperature_K, substrate=run.substrate,
-                        window=run.window, highlighted=rows)
-    return {**chart, "systems_not_drawn": more}
+                        window=run.window, highlighted=marked_rows(rows))
+    return {**chart, "systems_not_drawn": more, "matches_in_table": len(rows)}

@@ -74,19 +74,41 @@ def band_gap_section(report: dict[str, Any]) -> Section:
     return Section(f"Band gap at {temperature:g} K", tuple(lines))
 
 
-def tight_binding_section(report: dict[str, Any]) -> Section:
-    """The sp3 model's own gaps (raw model output, before calibration), with wavelengths."""
+def tight_binding_section(report: dict[str, Any],
+                          bands: dict[str, Any] | None = None) -> Section:
+    """The sp3 model's own gaps (raw model output, before calibration), with wavelengths.
+
+    The conduction valleys (Γ, X, L) are given above the valence-band maximum, as tabulated
+    valley gaps are; the direct (vertical) gaps at the same points follow, labelled as such.
+
+    Args:
+        report: An engine report of a binary.
+        bands: Its `bands_payload` if already computed (else computed here).
+    """
+    bands = bands or bands_payload(report["formula"], points=CHART_POINTS)
     route = "sp3 tight binding; raw model output, not an estimate of the measured gap"
-    lines = [
-        Line(label, dig(report, f"tight_binding.{key}"), "eV", route, TIGHT_BINDING,
-             wavelength_nm=wavelength_of(dig(report, f"tight_binding.{key}")), key=key)
-        for key, label in (("gamma_gap_eV", "Gap at Γ"), ("x_gap_eV", "Gap at X"),
-                           ("l_gap_eV", "Gap at L"), ("min_gap_eV", "Smallest of the three"))
-    ]
+    valley_route = route + "; lowest conduction level there minus the valence-band maximum"
+
+    def line(label: str, value: Any, route: str, key: str) -> Line:
+        return Line(label, value, "eV", route, TIGHT_BINDING, wavelength_nm=wavelength_of(value),
+                    key=key)
+
+    lines = [line(f"{v['label']} valley above the valence-band maximum", v["above_vbm_eV"],
+                  valley_route, f"{VALLEY_KEYS[v['label']]}_valley_eV")
+             for v in bands["valleys"]]
+    lines.append(line(f"Smallest gap along the path {bands['path']}",
+                      dig(report, "tight_binding.min_gap_eV"), route, "min_gap_eV"))
+    lines += [line(f"Direct gap at {name}", dig(report, f"tight_binding.{key}_gap_eV"),
+                   route + "; vertical: conduction minus valence at the same point",
+                   f"{key}_gap_eV") for name, key in VALLEY_KEYS.items()]
     direct = dig(report, "tight_binding.direct")
     lines.append(Line("Direct in the model", None if direct is None else
                       ("yes" if direct else "no"), "", route, MODEL_LIMITS, key="direct"))
     return Section("Band edges of the sp3 model", tuple(lines))
+
+
+VALLEY_KEYS: dict[str, str] = {"Γ": "gamma", "X": "x", "L": "l"}
+"""Point label -> the key stem of the report's `tight_binding` gaps ("x" -> x_gap_eV)."""
 
 
 def gap_summary(report: dict[str, Any]) -> dict[str, Any]:
@@ -104,9 +126,9 @@ def gap_summary(report: dict[str, Any]) -> dict[str, Any]:
     }
 
 
-def band_chart(report: dict[str, Any]) -> dict[str, Any]:
+def band_chart(report: dict[str, Any], bands: dict[str, Any] | None = None) -> dict[str, Any]:
     """Data of the band chart: bands relative to the VBM, corners, model gap, gap at T."""
-    bands = bands_payload(report["formula"], points=CHART_POINTS)
+    bands = bands or bands_payload(report["formula"], points=CHART_POINTS)
     return {
         "formula": bands["formula"],
         "distance": bands["distance"],

@@ -35,10 +35,14 @@ from scipy.special import lambertw
 from screening.errors import OutOfRangeError, UnknownChoiceError, UnknownSubstrateError
 from screening.reference import substrates
 
+_MISMATCH_SIGN: Final[str] = "f > 0: the layer is larger and is compressed in-plane"
 MISMATCH_CONVENTION: Final[str] = (
-    "f = (a_layer - a_substrate) / a_substrate, a fraction (not percent); f > 0: the layer is "
-    "larger and is compressed in-plane"
+    f"f = (a_layer - a_substrate) / a_substrate, a fraction (not percent); {_MISMATCH_SIGN}"
 )
+MISMATCH_PERCENT_CONVENTION: Final[str] = (
+    f"f = (a_layer - a_substrate) / a_substrate, shown in percent (100 f); {_MISMATCH_SIGN}"
+)
+"""The same convention for screens that show the mismatch in percent (pages and tables)."""
 
 DEFAULT_POISSON_RATIO: Final[float] = 1.0 / 3.0
 """Assumed (001) Poisson ratio where elastic constants are missing: a round value inside the

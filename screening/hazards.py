@@ -218,6 +218,12 @@ PBB, PBDE and four phthalates). Exemptions exist per application; check the curr
 and IV and your product's category."""
 
 
+ROHS_ELEMENTS: Final[str] = ", ".join(sorted(ROHS_RESTRICTED))
+"""The restricted elements as one list for help texts and labels ("Cd, Cr, Hg, Pb")."""
+ROHS_ANNEX_II: Final[str] = f"Directive 2011/65/EU Annex II: {ROHS_ELEMENTS}"
+"""Short form of the restriction for help texts (the full citation is `ROHS_SOURCE`)."""
+
+
 def rohs_restricted(elements: Iterable[str]) -> list[str]:
     """The given elements that RoHS Annex II restricts."""
     return [e for e in elements if e in ROHS_RESTRICTED]

@@ -57,10 +57,16 @@
     const label = function (x, y, text) {
       return { x: x, y: y, text: text, showarrow: false, yshift: 12, font: { size: 11 } };
     };
+    // Room above the top level for its label, and a top margin for the plot toolbar.
+    const levels = [d.cation_eV, d.anion_eV, d.bonding_eV, d.antibonding_eV];
+    const lo = Math.min.apply(null, levels), hi = Math.max.apply(null, levels);
+    const pad = Math.max(hi - lo, 1) * 0.15;
     const layout = Object.assign({}, BASE_LAYOUT, {
       showlegend: false,
+      margin: { l: 60, r: 20, t: 40, b: 20 },
       xaxis: { visible: false, range: [-0.3, 4.3] },
-      yaxis: { title: { text: "Energy (eV)" }, zeroline: false, gridcolor: "#eeebe4" },
+      yaxis: { title: { text: "Energy (eV)" }, zeroline: false, gridcolor: "#eeebe4",
+               range: [lo - pad, hi + pad] },
       annotations: [
         label(0.5, d.cation_eV, d.cation + " sp³ " + d.cation_eV.toFixed(2)),
         label(3.5, d.anion_eV, d.anion + " sp³ " + d.anion_eV.toFixed(2)),
@@ -101,19 +107,27 @@
                   line: { color: "#1f2733", width: 1.5, dash: "dash" }, hoverinfo: "skip" });
     const me = d.points.find(function (p) { return p.formula === d.formula; });
     if (me) {
-      traces.push({ x: [me.eh], y: [me.c], text: [me.formula], mode: "markers+text",
-                    textposition: "top center", name: me.formula, hoverinfo: "skip",
-                    textfont: { size: 13, color: "#1f2733" },
+      traces.push({ x: [me.eh], y: [me.c], mode: "markers", name: me.formula,
+                    hoverinfo: "skip", showlegend: false,
                     marker: { size: 15, color: "rgba(0,0,0,0)",
                               line: { color: "#1f2733", width: 2 } } });
     }
+    // The legend sits at the foot of the figure, below the axis title, never on it.
     const layout = Object.assign({}, BASE_LAYOUT, {
       xaxis: { title: { text: "Homopolar gap Eh (eV)" }, range: [0, xmax], gridcolor: "#eeebe4" },
       yaxis: { title: { text: "Heteropolar gap C (eV)" }, range: [0, ymax], gridcolor: "#eeebe4" },
-      legend: { orientation: "h", y: -0.2 },
-      margin: { l: 60, r: 20, t: 10, b: 80 },
+      legend: { orientation: "h", yref: "container", y: 0, yanchor: "bottom", x: 0 },
+      margin: { l: 60, r: 20, t: 30, b: 110 },
     });
-    Plotly.newPlot(el, traces, layout, CONFIG);
+    Plotly.newPlot(el, traces, layout, CONFIG).then(function () {
+      if (!me || !window.bondgapLabels) return;
+      // The compound's own label: off the data points, with a leader line where needed.
+      const points = d.points.map(function (p) { return { x: p.eh, y: p.c, r: 4 }; });
+      const label = [{ x: me.eh, y: me.c, text: me.formula, r: 8 }];
+      window.bondgapLabels.attach(el, [], function (node) {
+        return window.bondgapLabels.place(node, label, { points: points, size: 13 });
+      });
+    });
   }
 
   document.addEventListener("DOMContentLoaded", function () {

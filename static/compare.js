@@ -19,8 +19,8 @@
         name: "catalogue", marker: { color: "#c5c0b5", size: 6 },
         hovertemplate: "%{text}: a %{x:.4f} Å, Eg %{y:.3f} eV<extra></extra>" },
       { x: picked.map(function (p) { return p.a; }), y: picked.map(function (p) { return p.gap; }),
-        text: picked.map(function (p) { return p.formula; }), mode: "markers+text",
-        textposition: "top center", type: "scatter", name: "candidates",
+        text: picked.map(function (p) { return p.formula; }), mode: "markers",
+        type: "scatter", name: "candidates",
         marker: { color: "#0e6466", size: 11 },
         hovertemplate: "%{text}: a %{x:.4f} Å, Eg %{y:.3f} eV<extra></extra>" },
     ];
@@ -63,7 +63,21 @@
                range: span(ys, 0.4, Math.min(0, Math.min.apply(null, ys.concat([0])))) },
       legend: { orientation: "h", y: -0.2 }, shapes: shapes, annotations: annotations,
     };
-    Plotly.newPlot(el, traces, layout, { displaylogo: false, responsive: true });
+    Plotly.newPlot(el, traces, layout, { displaylogo: false, responsive: true }).then(function () {
+      // Candidates' labels beside their points, clear of each other and of every marker.
+      const yoursAt = function (p) {
+        return { x: p.yours_a !== null ? p.yours_a : p.a, y: p.yours_gap, r: 7 };
+      };
+      const markers = picked.map(function (p) { return { x: p.a, y: p.gap, r: 6 }; })
+        .concat(yours.map(yoursAt));
+      const grey = bg.map(function (p) { return { x: p.a, y: p.gap, r: 3 }; });
+      const labels = picked.map(function (p) {
+        return { x: p.a, y: p.gap, text: p.formula, r: 6, colour: "#0e6466" };
+      });
+      window.bondgapLabels.attach(el, annotations, function (node) {
+        return window.bondgapLabels.place(node, labels, { points: markers, soft: grey, size: 12 });
+      });
+    });
   }
   document.addEventListener("DOMContentLoaded", draw);
 })();

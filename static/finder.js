@@ -31,27 +31,36 @@
     };
   }
 
+  // A range around `values` with room on both sides (a share of their span, at least `least`).
+  function padded(values, share, least) {
+    const lo = Math.min.apply(null, values), hi = Math.max.apply(null, values);
+    const pad = Math.max((hi - lo) * share, least);
+    return [lo - pad, hi + pad];
+  }
+
   function draw(d) {
     const el = document.getElementById("chart-plane");
     if (!el || !d || !window.Plotly) return;
-    const traces = d.systems.map(systemTrace);
-    traces.push({
-      x: d.binaries.a, y: d.binaries.gap, text: d.binaries.formula, name: "binaries",
-      mode: "markers+text", type: "scatter", textposition: "top center",
-      textfont: { size: 10, color: INK }, marker: { color: INK, size: 6 },
-      hovertemplate: "%{text}<br>a %{x:.4f} Å<br>Eg %{y:.3f} eV<extra></extra>",
-    });
     const m = d.matches;
-    if (m.formula.length) {
+    const traces = [];
+    if (m.formula.length) {  // under the curves: the curve stays readable through them
       traces.push({
         x: m.a, y: m.gap, text: m.formula, customdata: m.mismatch,
-        name: m.formula.length === 1 ? m.formula[0] : "matches (" + m.formula.length + ")",
+        name: m.formula.length === 1 ? m.formula[0] : "matches (" + m.formula.length +
+          (d.matches_in_table > m.formula.length ? " of " + d.matches_in_table : "") + ")",
         mode: "markers", type: "scatter",
-        marker: { color: WARM, size: 8, symbol: "diamond", line: { color: INK, width: 0.8 } },
+        marker: { color: WARM, size: 7, symbol: "diamond", opacity: 0.75,
+                  line: { color: INK, width: 0.5 } },
         hovertemplate: "%{text}<br>a %{x:.4f} Å, f %{customdata:.2e}<br>" +
           "Eg %{y:.3f} eV<extra></extra>",
       });
     }
+    Array.prototype.push.apply(traces, d.systems.map(systemTrace));
+    traces.push({
+      x: d.binaries.a, y: d.binaries.gap, text: d.binaries.formula, name: "binaries",
+      mode: "markers", type: "scatter", marker: { color: INK, size: 6 },
+      hovertemplate: "%{text}<br>a %{x:.4f} Å<br>Eg %{y:.3f} eV<extra></extra>",
+    });
     // Frame the systems, the matches and the substrate; binaries further out stay on the
     // chart (double-click autoscales to show them all).
     const xs = finite(m.a);
@@ -81,26 +90,42 @@
       shapes.push({ type: "rect", xref: "paper", yref: "y", x0: 0, x1: 1, y0: d.target.low,
                     y1: high, fillcolor: "rgba(181,101,29,0.16)", line: { width: 0 },
                     layer: "below" });
-      shapes.push({ type: "line", xref: "paper", yref: "y", x0: 0, x1: 1, y0: d.target.target,
-                    y1: d.target.target, line: { color: WARM, width: 1, dash: "dot" } });
-      annotations.push({ x: 1, y: d.target.target, xref: "paper", yref: "y", xanchor: "right",
-                         yanchor: "bottom", showarrow: false, font: { size: 11, color: WARM },
-                         text: "target: " + d.target.description });
     }
-    const xpad = 0.25;
+    // Ranges from the data: 12 % of the span on each side (room for the end points' labels),
+    // at least 0.002 Å and 0.1 eV, so a narrow system such as AlGaAs is not a vertical line.
+    const yRange = padded(ys, 0.12, 0.1);
     const layout = {
       margin: { l: 60, r: 20, t: 24, b: 50 }, paper_bgcolor: "#ffffff", plot_bgcolor: "#ffffff",
       font: { family: "system-ui, sans-serif", size: 12, color: INK },
       hoverlabel: { bgcolor: INK, font: { color: "#fff" } },
-      shapes: shapes, annotations: annotations, legend: { orientation: "v" },
+      shapes: shapes, annotations: annotations,
+      legend: { orientation: "v", y: 0.88, yanchor: "top" },  // below the plot toolbar
       xaxis: { title: { text: "Lattice constant a (Å)" }, gridcolor: "#eeebe4", zeroline: false,
-               range: [Math.min.apply(null, xs) - xpad, Math.max.apply(null, xs) + xpad] },
+               range: padded(xs, 0.12, 0.002) },
       yaxis: { title: { text: "Band gap at " + d.temperature_K + " K (eV)" },
                gridcolor: "#eeebe4", zeroline: false,
-               range: [Math.max(0, Math.min.apply(null, ys) - 0.4) - 0.1,
-                       Math.max.apply(null, ys) + 0.4] },
+               range: [Math.max(yRange[0], Math.min(0, Math.min.apply(null, ys))), yRange[1]] },
     };
-    Plotly.newPlot(el, traces, layout, CONFIG);
+    if (d.target) {  // a legend entry, not a text on the plot: the caption says the rest
+      traces.push({ x: layout.xaxis.range, y: [d.target.target, d.target.target], mode: "lines",
+                    name: "target " + d.target.target.toFixed(3) + " eV", hoverinfo: "skip",
+                    line: { color: WARM, width: 1.2, dash: "dot" } });
+    }
+    Plotly.newPlot(el, traces, layout, CONFIG).then(function () {
+      // The binaries' labels, clear of each other, the markers and (rather) the curves.
+      const at = function (xsOf, ysOf, r, texts) {
+        return xsOf.map(function (x, i) {
+          return { x: x, y: ysOf[i], r: r, text: texts ? texts[i] : "" };
+        }).filter(function (p) { return p.x !== null && p.y !== null; });
+      };
+      const binaries = at(d.binaries.a, d.binaries.gap, 4, d.binaries.formula);
+      let curves = at(m.a, m.gap, 4);
+      d.systems.forEach(function (s) { curves = curves.concat(at(s.a, s.gap, 2)); });
+      window.bondgapLabels.attach(el, annotations, function (node) {
+        return window.bondgapLabels.place(node, binaries, { points: binaries, soft: curves,
+                                                          size: 11 });
+      });
+    });
   }
 
   document.addEventListener("DOMContentLoaded", function () { draw(jsonOf("plane-data")); });

@@ -12,7 +12,7 @@ from app.columns import COLUMNS_BY_KEY
 from app.commands.common import open_sessions
 from app.config import Settings, add_db_argument
 from app.numbers import terminal
-from screening.hazards import ROHS_SOURCE
+from screening.hazards import ROHS_ANNEX_II, ROHS_SOURCE
 
 TEXT_COLUMNS: tuple[str, ...] = (
     "formula", "family", "structure_observed", "band_gap_eV", "band_gap_estimate_eV",
@@ -48,7 +48,7 @@ def register(sub: argparse._SubParsersAction) -> None:
                         help="leave out compounds containing these elements, e.g. As,Cd")
     parser.add_argument("--no-rohs", action="store_true",
                         help="leave out compounds with an element restricted by RoHS "
-                        "(Directive 2011/65/EU Annex II: Cd, Hg, Pb)")
+                        f"({ROHS_ANNEX_II})")
     parser.add_argument("--sort", metavar="COLUMN", default="formula",
                         help=f"column to sort by: {', '.join(COLUMNS_BY_KEY)}")
     parser.add_argument("--desc", action="store_true", help="sort in descending order")

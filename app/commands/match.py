@@ -14,6 +14,7 @@ from app.finder_payload import match_payload
 from app.numbers import fixed, round_estimate, thickness_text
 from app.views import caution_line
 from screening.epitaxy import GEOMETRIES
+from screening.hazards import ROHS_ANNEX_II
 
 
 def register(sub: argparse._SubParsersAction) -> None:
@@ -47,7 +48,8 @@ def register(sub: argparse._SubParsersAction) -> None:
     parser.add_argument("--exclude", metavar="ELEMENTS", action="append",
                         help="elements no match may contain, e.g. Cd,Hg (repeatable)")
     parser.add_argument("--no-rohs", action="store_true",
-                        help="exclude compositions with a RoHS-restricted element")
+                        help="exclude compositions with an element restricted by RoHS "
+                        f"({ROHS_ANNEX_II})")
     parser.add_argument("--sort", default="rank", help=f"order: {', '.join(SORT_KEYS)}")
     parser.add_argument("--desc", action="store_true", help="descending order")
     parser.add_argument("--limit", metavar="N", default=str(DEFAULT_LIMIT),

@@ -25,4 +25,6 @@ def alloy_page(request: Request, session: Session, report: dict[str, Any], *,
     context.update(report=report, substrates=substrate_rows(session), geometries=GEOMETRIES,
                    json_url=json_url + ("?" + urlencode(params) if params else ""),
                    **report_extras(session, report))
-    return request.app.state.templates.TemplateResponse(request, "alloy.html", context)
+    status = 400 if context["epitaxy_error"] else 200  # as the API answers the same query
+    return request.app.state.templates.TemplateResponse(request, "alloy.html", context,
+                                                        status_code=status)

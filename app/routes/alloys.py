@@ -13,14 +13,16 @@ from app.deps import SessionDep
 from app.finder import DEFAULT_LIMIT, DEFAULT_TOLERANCE_EV, SORT_KEYS, MatchQuery, run_match
 from app.finder_chart import finder_chart
 from app.finder_payload import match_payload
+from app.params import QueryError
 from app.shortlists import all_shortlists
 from app.substrates import substrate_rows
 from app.views import caution_line
 from screening.alloy_report import normalise_material
 from screening.alloys import design_space_systems
 from screening.alloys.query import DEFAULT_FAMILIES
-from screening.epitaxy import GEOMETRIES, MISMATCH_CONVENTION
+from screening.epitaxy import GEOMETRIES, MISMATCH_PERCENT_CONVENTION
 from screening.errors import BondgapInputError
+from screening.hazards import ROHS_ELEMENTS
 
 router = APIRouter()
 
@@ -40,6 +42,37 @@ PAGE_MAX_ROWS = 2000
 
 PARAMS = ("system", "on", "gap", "wavelength", "tolerance", "temperature", "max_mismatch",
           "thickness", "geometry", "sort", "desc", "limit")
+
+PERCENT_FIELD = "max_mismatch_percent"
+"""The page's form asks the mismatch limit in percent; the API's `max_mismatch` is a fraction."""
+
+
+def _percent(text: str) -> float | None:
+    """A number of percent from 0 to 100, or None if `text` is not one."""
+    try:
+        value = float(text)
+    except ValueError:
+        return None
+    return value if 0 <= value <= 100 else None  # NaN fails both comparisons
+
+
+def _mismatch_fraction(params: Any) -> str | None:
+    """The page's mismatch limit as the API's fraction: from the form's percent, or as given.
+
+    Raises:
+        QueryError: Not a number of percent from 0 to 100, or given both ways.
+    """
+    text = (params.get(PERCENT_FIELD) or "").strip()
+    if not text:
+        return params.get("max_mismatch")
+    if (params.get("max_mismatch") or "").strip():
+        raise QueryError("give the mismatch limit once: in percent (max_mismatch_percent) or "
+                         "as a fraction (max_mismatch)")
+    value = _percent(text)
+    if value is None:
+        raise QueryError(f"the mismatch limit must be a number of percent from 0 to 100, not "
+                         f"{text[:40]!r}")
+    return repr(value / 100)
 
 
 def match_query(
@@ -63,7 +96,7 @@ def match_query(
     exclude: Annotated[list[str] | None, Query(
         description="Elements no match may contain (repeat, or a comma list)")] = None,
     no_rohs: Annotated[bool, Query(
-        description="Exclude compositions with a RoHS-restricted element (Cd, Hg, Pb, Cr)")
+        description=f"Exclude compositions with a RoHS-restricted element ({ROHS_ELEMENTS})")
     ] = False,
     sort: Annotated[str | None, Query(
         description=f"Order of the matches: {', '.join(SORT_KEYS)} (default rank)")] = None,
@@ -99,7 +132,8 @@ def api_match(session: SessionDep, query: MatchQueryDep) -> dict[str, Any]:
 
 def _query_of(request: Request) -> MatchQuery:
     params = request.query_params
-    return match_query(**{k: params.get(k) for k in PARAMS if k != "desc"},
+    values = {k: params.get(k) for k in PARAMS if k != "desc"}
+    return match_query(**{**values, "max_mismatch": _mismatch_fraction(params)},
                        desc=params.get("desc", "").lower() in ("true", "1", "on", "yes"),
                        exclude=params.getlist("exclude") or None,  # as the API reads it
                        no_rohs=params.get("no_rohs", "").lower() in ("true", "1", "on", "yes"))
@@ -123,6 +157,9 @@ def _headers(query: MatchQuery) -> list[dict[str, Any]]:
 def _form(request: Request) -> dict[str, Any]:
     params = request.query_params
     form = {k: params.get(k, "") for k in PARAMS}
+    fraction = _percent(params.get("max_mismatch", "").strip() or "nan")
+    form[PERCENT_FIELD] = params.get(PERCENT_FIELD) or (
+        f"{100 * fraction:g}" if fraction is not None and fraction <= 1 else "")
     form["no_rohs"] = params.get("no_rohs", "").lower() in ("true", "1", "on", "yes")
     form["exclude"] = [e.strip() for v in params.getlist("exclude") for e in v.split(",")
                        if e.strip()]
@@ -144,7 +181,8 @@ def finder_page(request: Request, session: SessionDep) -> Response:
         "form": _form(request), "substrates": substrate_rows(session),
         "systems": [s.name for s in design_space_systems(DEFAULT_FAMILIES)],
         "geometries": GEOMETRIES, "exclude_choices": EXCLUDE_CHOICES,
-        "default_tolerance": DEFAULT_TOLERANCE_EV, "convention": MISMATCH_CONVENTION,
+        "default_tolerance": DEFAULT_TOLERANCE_EV, "convention": MISMATCH_PERCENT_CONVENTION,
+        "rohs_elements": ROHS_ELEMENTS,
         "payload": None, "error": None, "shortlists": all_shortlists(session),
     }
     status = 200

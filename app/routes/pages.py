@@ -10,6 +10,8 @@ from fastapi.responses import RedirectResponse, Response
 
 from app import gap_views, queries, views
 from app.accuracy import accuracy_payload
+from app.alloy_views import epitaxy_for, epitaxy_section
+from app.band_data import bands_payload
 from app.candidates import elements_of
 from app.columns import COLUMNS
 from app.deps import SessionDep, TableQueryDep, TemperatureDep
@@ -75,6 +77,14 @@ def compounds_page(request: Request, session: SessionDep, query: TableQueryDep) 
     })
 
 
+def _api_query(temperature: float | None, on: str | None, geometry: str | None) -> str:
+    """The page's temperature, substrate and geometry as the JSON link's query ("" if none)."""
+    params = {"temperature": None if temperature is None else f"{temperature:.10g}",
+              "on": on, "geometry": geometry if on else None}
+    given = {k: v for k, v in params.items() if v}
+    return "?" + urlencode(given) if given else ""
+
+
 @router.get("/compounds/{formula:path}")
 def compound_page(
     request: Request, session: SessionDep, formula: str, temperature: TemperatureDep,
@@ -84,29 +94,38 @@ def compound_page(
     report = queries.compound_report(session, formula=formula, temperature_K=temperature)
     at = "" if temperature is None else "?" + urlencode({"temperature": f"{temperature:.10g}"})
     if report["formula"] != formula:
-        if report.get("alloy") and request.query_params:  # keep substrate and geometry
+        if request.query_params:  # keep substrate and geometry
             at = "?" + urlencode(request.query_params.multi_items())
         return RedirectResponse("/compounds/" + quote(report["formula"]) + at, status_code=307)
     if report.get("alloy"):
         return alloy_page(request, session, report, on=on, geometry=geometry)
+    bands = bands_payload(report["formula"], points=gap_views.CHART_POINTS)
     charts = {
         "ehc": views.eh_c_chart(queries.all_reports(session), formula=report["formula"]),
         "levels": views.bond_levels_chart(report),
-        "bands": gap_views.band_chart(report),
+        "bands": gap_views.band_chart(report, bands),
     }
-    return _render(request, "compound.html", {
+    block, _, problem = epitaxy_for(session, report["formula"], on, geometry or "single-uncapped")
+    sections = [*views.report_sections(report), gap_views.tight_binding_section(report, bands)]
+    if block:
+        sections.insert(0, epitaxy_section(block))
+    page = _render(request, "compound.html", {
         "report": report,
+        "epitaxy_error": problem,
         "gap": gap_views.gap_summary(report),
         "gap_section": gap_views.band_gap_section(report),
-        "sections": [*views.report_sections(report), gap_views.tight_binding_section(report)],
+        "sections": sections,
         "charts": charts,
         "model_limits": MODEL_LIMITS,
         "hazard_caution": views.caution_line(elements_of(report)),
         "hazard_notes": report.get("hazards", {}).get("notes") or [],
-        "json_url": "/api/compounds/" + quote(report["formula"]) + at,
+        "json_url": "/api/compounds/" + quote(report["formula"])
+        + _api_query(temperature, on, geometry),
         "bands_url": "/api/compounds/" + quote(report["formula"]) + "/bands",
         **report_extras(session, report),
     })
+    page.status_code = 400 if problem else 200  # an unknown substrate: as the API answers
+    return page
 
 
 @router.get("/accuracy")

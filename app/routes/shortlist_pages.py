@@ -15,6 +15,7 @@ from app import shortlists as store
 from app import views
 from app.candidates import ShortlistView, caution_elements, load_shortlist, rohs_elements
 from app.compare import MAX_COMPARED, MIN_COMPARED
+from app.compare_notes import compare_notes
 from app.conditions import Conditions
 from app.deps import SessionDep, ShortlistId
 from app.params import QueryError
@@ -167,5 +168,6 @@ def compare_page(request: Request, session: SessionDep, shortlist_id: ShortlistI
     payload = compare_payload(session, view)
     return _render(request, "compare.html", {
         "view": view, "shortlist": view.data, "conditions": view.conditions,
-        "rows": payload["rows"], "chart": payload["chart"], **hazard_context(view),
+        "rows": payload["rows"], "notes": compare_notes(payload["rows"]),
+        "chart": payload["chart"], **hazard_context(view),
     })

@@ -85,8 +85,11 @@ def test_compare_page_shows_units_routes_sources_and_best(client) -> None:
     assert "(eV)" in gap.th.get_text() and "closest to the target" in gap.th.get_text()
     cells = gap.find_all("td")
     assert [c.get("class") == ["best"] for c in cells] == [False, True, False]
-    assert cells[0].select_one(".route").get_text().startswith("measured")
-    assert cells[0].select_one(".source").get_text()
+    # Routes and sources are numbered notes under the table (issue 10: long citations in the
+    # cells pushed the values off the screen); a cell shows the number of its note.
+    note = soup.select_one(cells[0].select_one("sup.fn a")["href"])
+    assert note.get_text().startswith("measured at 300 K; ") and "(from memory)" in note.get_text()
+    assert not soup.select("#compare-table .source")
     assert soup.select_one("#compare-table tr[data-key='mismatch'] td.best")
     assert soup.select_one("#chart-compare") and soup.select_one("#compare-data")
     assert "As" in soup.select_one("#hazard-box").get_text()
