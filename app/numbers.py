@@ -22,9 +22,10 @@ No negative zero: a number that rounds to zero is written "0.000", never "-0.000
 Critical thickness: "∞" for a lattice-matched layer (mismatch exactly zero, so h_c is
 infinite); "> 10 µm" above :data:`THICKNESS_BOUND_NM` (layers that thick are past what a
 (001) Matthews-Blakeslee estimate is used for, and the number's digits would only suggest a
-precision it does not have); otherwise the value in nm to three significant digits (common
-practice, no source). JSON keeps every number at full precision (an infinite h_c is null there,
-with `lattice_matched` or the note saying why).
+precision it does not have); "none" for a zero h_c (no coherent layer above one Burgers
+vector); otherwise the value in nm to three significant digits (common practice, no source).
+JSON keeps every number at full precision (an infinite h_c is null there, with
+`lattice_matched` or the note saying why).
 """
 
 from __future__ import annotations
@@ -42,6 +43,8 @@ THICKNESS_ABOVE = "> 10 µm"
 """How a critical thickness above the bound is written."""
 THICKNESS_MATCHED = "∞"
 """How the critical thickness of a lattice-matched layer is written."""
+THICKNESS_NONE = "none"
+"""How a zero critical thickness is written: no coherent layer thicker than one Burgers vector."""
 THICKNESS_DIGITS = 3
 """Significant digits of a critical thickness below the bound."""
 NO_VALUE = "—"
@@ -160,7 +163,10 @@ def _significant_text(value: float, digits: int) -> str:
 
 
 def thickness_text(value_nm: float | None, *, matched: bool = False, unit: bool = False) -> str:
-    """A critical thickness as written: "∞", "> 10 µm", "250" (with " nm" if `unit`), or "—".
+    """A critical thickness as written: "∞", "> 10 µm", "250" (" nm" if `unit`), "none" or "—".
+
+    "none" is a zero h_c: the mismatch is so large that no layer above one Burgers vector is
+    coherent.
 
     Args:
         value_nm: h_c in nm (inf or None for a lattice-matched layer, None where not given).
@@ -173,6 +179,8 @@ def thickness_text(value_nm: float | None, *, matched: bool = False, unit: bool 
         return NO_VALUE
     if value_nm > THICKNESS_BOUND_NM:
         return THICKNESS_ABOVE
+    if value_nm <= 0:
+        return THICKNESS_NONE
     return _significant_text(value_nm, THICKNESS_DIGITS) + (f"{NBSP}nm" if unit else "")
 
 

@@ -120,12 +120,12 @@ def test_stated_decimals_and_csv_numbers() -> None:
         (10000.4, False, "> 10 µm", None),
         (9876.5, False, "9880", 9880),
         (12.345, False, "12.3", 12.3),
-        (0.0, False, "0", 0),  # no thickness above one Burgers vector is stable
+        (0.0, False, "none", 0),  # no thickness above one Burgers vector is stable
         (None, False, "—", None),  # not given (hexagonal or rocksalt layers)
     ],
 )
 def test_critical_thickness_rule(value, matched, shown, number) -> None:
     assert thickness_text(value, matched=matched) == shown
     assert thickness_number(value) == number
-    if number is not None:
+    if number:
         assert thickness_text(value, unit=True) == f"{shown}{NBSP}nm"
