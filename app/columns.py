@@ -93,10 +93,11 @@ COLUMNS: tuple[Column, ...] = (
            "Where the band gap comes from: measured or estimate", "text", shown=False),
     Column("band_gap_estimate_eV", "gap_estimate_ev", "Estimate", "eV",
            "Band-gap estimate at the temperature (sp3 tight binding calibrated on the measured "
-           "gaps), shown beside the measured gap", digits=3),
+           "gaps), shown beside the measured gap with its uncertainty, rounded to it",
+           digits=3, uncertainty_key="band_gap_uncertainty_eV"),
     Column("band_gap_uncertainty_eV", "gap_uncertainty_ev", "± estimate", "eV",
            "Uncertainty of the estimate: leave-one-out RMS error of the compound's family",
-           digits=2),
+           digits=2, shown=False),
     Column("wavelength_nm", "gap_wavelength_nm", "Wavelength", "nm",
            "Photon wavelength of the band gap shown, hc/Eg", digits=0),
     Column("band_gap_kind", "gap_kind_shown", "Gap kind", "",

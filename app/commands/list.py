@@ -16,7 +16,7 @@ from screening.hazards import ROHS_ANNEX_II, ROHS_SOURCE
 
 TEXT_COLUMNS: tuple[str, ...] = (
     "formula", "family", "structure_observed", "band_gap_eV", "band_gap_estimate_eV",
-    "band_gap_uncertainty_eV", "wavelength_nm", "band_gap_kind", "lattice_constant_angstrom",
+    "wavelength_nm", "band_gap_kind", "lattice_constant_angstrom",
     "ionicity_spectroscopic", "ionicity_predictive", "polarity", "coordination_predicted",
 )
 """Columns of the plain-text table (--json and --csv give all of them)."""

@@ -75,9 +75,10 @@ def test_bad_temperature_page_is_a_friendly_400(client, value: str) -> None:
 def test_table_has_gap_columns_marks_and_filters(client) -> None:
     soup = soup_of(client.get("/compounds?temperature=77&kind=direct&wl_min=300"))
     keys = [a["data-sort-key"] for a in soup.select("thead th a[data-sort-key]")]
-    for key in ("band_gap_eV", "band_gap_estimate_eV", "band_gap_uncertainty_eV",
-                "wavelength_nm", "band_gap_kind"):
+    for key in ("band_gap_eV", "band_gap_estimate_eV", "wavelength_nm", "band_gap_kind"):
         assert key in keys
+    # The estimate carries its ± in its own cell (one line), rounded to it: no second column.
+    assert "band_gap_uncertainty_eV" not in keys
     assert keys.index("band_gap_estimate_eV") == keys.index("band_gap_eV") + 1
     assert soup.select_one("#filter-temperature")["value"] == "77"
     assert soup.select_one("#filter-kind option[selected]")["value"] == "direct"
@@ -118,3 +119,19 @@ def test_accuracy_page_lists_every_measured_compound(client) -> None:
 def test_nav_links_the_accuracy_page(client) -> None:
     soup = soup_of(client.get("/compounds"))
     assert "/accuracy" in [a["href"] for a in soup.select("nav a")]
+
+
+def test_every_estimate_in_the_table_is_rounded_to_its_uncertainty(client) -> None:
+    # Rule of app.numbers (uncertainty to 1-2 significant digits, value to the same place;
+    # Particle Data Group rounding, common practice): "5.2 ± 0.7", never "5.174 ± 0.69".
+    soup = soup_of(client.get("/compounds"))
+    cells = soup.select("td[data-key='band_gap_estimate_eV']")
+    assert len(cells) > 50
+    for cell in cells:
+        text = cell.get_text(" ", strip=True)
+        if text == "—":
+            continue
+        value, _, uncertainty = text.partition("±")
+        assert uncertainty, text
+        decimals = [len(part.strip().partition(".")[2]) for part in (value, uncertainty)]
+        assert decimals[0] == decimals[1] and decimals[0] <= 2, text
