@@ -19,6 +19,7 @@ from screening.alloys.properties import (
     formula_properties,
     on_substrate,
 )
+from screening.alloys.paging import ORDER_KEYS, Page
 from screening.alloys.query import ALL_SYSTEMS, FinderQuery, GapWindow
 from screening.alloys.results import JSON_KEYS, MATCH_KINDS, AlloyMatch, FinderResult
 from screening.alloys.systems import AlloySystem, design_space_systems, parse_system
@@ -29,6 +30,7 @@ __all__ = [
     "COMPOSITION_LAWS",
     "JSON_KEYS",
     "MATCH_KINDS",
+    "ORDER_KEYS",
     "Alloy",
     "AlloyMatch",
     "AlloyProperties",
@@ -37,6 +39,7 @@ __all__ = [
     "FinderQuery",
     "FinderResult",
     "GapWindow",
+    "Page",
     "VcaResult",
     "alloy_properties",
     "default_bowing",
