@@ -176,16 +176,18 @@ class _Search:
         c12 = vegard(self.packed, system_index, fractions, self.packed.c12_GPa)
         return epitaxy.poisson_ratio_001(c11, c12)
 
-    def screen(self, system_index: NDArray[np.intp], fractions: NDArray[np.float64],
-               kind: NDArray[np.intp], lattice: NDArray[np.float64]) -> dict[str, NDArray]:
-        """Apply every limit to a set of compositions; the survivors' core columns.
+    def screen(self, sources: list[tuple[NDArray[np.intp], NDArray[np.float64], NDArray[np.intp],
+                                         NDArray[np.float64]]]) -> dict[str, NDArray]:
+        """Apply every limit to sets of compositions; the survivors' core columns.
 
-        The grid is screened in slices of ``_CHUNK`` compositions, so that the temporary arrays
-        stay small whatever the size of the design space.
+        Each source is (system index, fractions, kind, lattice constant). The compositions are
+        screened in slices of ``_CHUNK``, and the survivors' columns joined one at a time, so
+        that the temporary arrays stay small whatever the size of the design space.
         """
-        parts = [self._screen(system_index[rows], fractions[rows], kind[rows], lattice[rows])
-                 for rows in _chunks(np.arange(len(system_index)))]
-        return {name: np.concatenate([part[name] for part in parts]) for name in parts[0]}
+        parts = [self._screen(*(column[rows] for column in source))
+                 for source in sources for rows in _chunks(np.arange(len(source[0])))]
+        return {name: np.concatenate([part.pop(name) for part in parts])
+                for name in list(parts[0])}
 
     def _screen(self, system_index: NDArray[np.intp], fractions: NDArray[np.float64],
                 kind: NDArray[np.intp], lattice: NDArray[np.float64]) -> dict[str, NDArray]:
@@ -343,11 +345,10 @@ def find_compositions(query: FinderQuery, page: Page | None = None) -> FinderRes
     search = _Search(query, space)
     root_sys, root_frac, root_kind = search.roots()
     root_lattice = vegard(space.packed, root_sys, root_frac, space.packed.lattice_a_angstrom)
-    parts = [search.screen(root_sys, root_frac, root_kind, root_lattice),
-             search.screen(space.system_index, space.fractions,
-                           np.zeros(space.size, dtype=np.intp), space.lattice_constant_angstrom)]
-    columns = {name: np.concatenate([part[name] for part in parts]) for name in parts[0]}
-    del parts
+    columns = search.screen([
+        (root_sys, root_frac, root_kind, root_lattice),
+        (space.system_index, space.fractions, np.zeros(space.size, dtype=np.intp),
+         space.lattice_constant_angstrom)])
     keep = _deduplicated(columns, systems)
     gap_term = (np.zeros(len(keep)) if query.gap is None
                 else _gap_window_distance(columns["band_gap_eV"][keep], query.gap))

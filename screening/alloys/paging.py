@@ -2,9 +2,10 @@
 
 The order of the matches is a list of sort keys, primary first (the asked column, then the
 rounded ranking score), and a last tie-break (the gap uncertainty) that costs more to compute.
-:func:`page_rows` finds the rows of the page by partition on the primary key, then sorts only
-those (with the rows that tie with its first and last) on every key and the tie-break: the
-page is the same as that of a full sort, for the cost of a partition.
+:func:`page_rows` finds the rows of the page by partition on the primary key, sorts only those
+(with the rows that tie with its first and last) on every key, and computes the tie-break for
+the page and the groups of equal keys at its edges: the page is the same as that of a full
+sort.
 """
 
 from __future__ import annotations
@@ -72,7 +73,8 @@ def page_rows(keys: list[NDArray], tie_break: Callable[[NDArray[np.intp]], NDArr
     """Rows [start, stop) of the order given by `keys` (primary first), then `tie_break`.
 
     Only the rows whose primary key lies between those at `start` and at `stop - 1` (found by
-    partition, without sorting) are sorted on every key; `tie_break` is computed for them.
+    partition) are sorted on every key; `tie_break` is computed only for the rows of the page
+    and those that tie with its first or last row on every key.
 
     Args:
         keys: Arrays over the rows, compared in turn (all of one length; the primary key
@@ -91,6 +93,18 @@ def page_rows(keys: list[NDArray], tie_break: Callable[[NDArray[np.intp]], NDArr
     primary = keys[0]
     low, high = np.partition(primary, (start, stop - 1))[[start, stop - 1]]
     window = np.flatnonzero((primary >= low) & (primary <= high))
-    before = int(np.count_nonzero(primary < low))
-    order = np.lexsort((tie_break(window), *(key[window] for key in keys[::-1])))
-    return window[order][start - before: stop - before]
+    start -= int(np.count_nonzero(primary < low))
+    stop -= len(primary) - len(window) - int(np.count_nonzero(primary > high))
+    window = window[np.lexsort([key[window] for key in keys[::-1]])]
+    new_group = np.zeros(len(window), dtype=bool)
+    new_group[0] = True
+    for key in keys:
+        ordered = key[window]
+        new_group[1:] |= ordered[1:] != ordered[:-1]
+    starts = np.flatnonzero(new_group)
+    first = int(starts[np.searchsorted(starts, start, side="right") - 1])
+    after = np.searchsorted(starts, stop, side="left")
+    last = int(starts[after]) if after < len(starts) else len(window)
+    near = window[first:last]
+    near = near[np.lexsort((tie_break(near), np.cumsum(new_group[first:last])))]
+    return near[start - first: stop - first]
