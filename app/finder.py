@@ -10,12 +10,13 @@ page renders the same rows.
 from __future__ import annotations
 
 import math
-import threading
+from concurrent.futures import ThreadPoolExecutor
 from dataclasses import asdict, dataclass, replace
 from typing import Any
 
 from sqlalchemy.orm import Session
 
+from app.memory import release_freed_memory
 from app.params import QueryError, parse_temperature
 from app.substrates import resolve_substrate
 from screening.alloys import (
@@ -46,9 +47,11 @@ MAX_OFFSET = 1_000_000
 """Largest `offset` accepted: more compositions than the whole design space holds."""
 SORT_KEYS: tuple[str, ...] = ORDER_KEYS
 """Columns the matches can be ordered by ("rank": the finder's score, best first)."""
-FINDER_RUNS = threading.BoundedSemaphore(1)
-"""One finder search at a time in a process: a search over the whole design space holds
-about 100 MB for a moment, and two at once would not finish sooner on a shared CPU."""
+FINDER = ThreadPoolExecutor(max_workers=1, thread_name_prefix="finder")
+"""The one thread that runs finder searches, one at a time: a search over the whole design
+space holds up to about 200 MB for a moment; two at once would not finish sooner on a shared
+CPU, and searches spread over many threads would each leave the allocator's memory of their
+own thread held (resident memory grew to 2 GB after a burst)."""
 
 
 def _number(value: Any, name: str, rule: str, ok: Any) -> float | None:
@@ -203,6 +206,14 @@ class MatchRun:
         return after if after < self.result.match_count else None
 
 
+def _search(query: FinderQuery, page: Page) -> FinderResult:
+    """One search, then the memory its arrays held given back (in the finder's thread)."""
+    try:
+        return find_compositions(query, page)
+    finally:
+        release_freed_memory()
+
+
 def run_match(session: Session | None, query: MatchQuery) -> MatchRun:
     """Resolve the substrate, run the finder for the query's page of matches.
 
@@ -212,13 +223,12 @@ def run_match(session: Session | None, query: MatchQuery) -> MatchRun:
     """
     substrate = resolve_substrate(session, query.on)
     window = query.window()
-    with FINDER_RUNS:
-        result = find_compositions(FinderQuery(
-            substrate=substrate, system=query.system, gap=window,
-            temperature_K=query.temperature_K, max_mismatch=query.max_mismatch,
-            layer_thickness_nm=query.thickness,
-            exclude_elements=query.exclude + (tuple(ROHS_RESTRICTED) if query.no_rohs else ()),
-            geometry=query.geometry, families=DEFAULT_FAMILIES),
-            Page(order=query.sort, descending=query.desc, offset=query.offset,
-                 limit=query.limit))
+    result = FINDER.submit(_search, FinderQuery(
+        substrate=substrate, system=query.system, gap=window,
+        temperature_K=query.temperature_K, max_mismatch=query.max_mismatch,
+        layer_thickness_nm=query.thickness,
+        exclude_elements=query.exclude + (tuple(ROHS_RESTRICTED) if query.no_rohs else ()),
+        geometry=query.geometry, families=DEFAULT_FAMILIES),
+        Page(order=query.sort, descending=query.desc, offset=query.offset,
+             limit=query.limit)).result()
     return MatchRun(query, substrate, window, result)
