@@ -9,7 +9,6 @@ page renders the same rows.
 
 from __future__ import annotations
 
-import math
 from concurrent.futures import ThreadPoolExecutor
 from dataclasses import asdict, dataclass, replace
 from typing import Any
@@ -17,7 +16,8 @@ from typing import Any
 from sqlalchemy.orm import Session
 
 from app.memory import release_freed_memory
-from app.params import QueryError, parse_temperature
+from app.numbers import NumberRule
+from app.params import MAX_GAP_EV, MAX_WAVELENGTH_NM, QueryError, number, parse_temperature
 from app.substrates import resolve_substrate
 from screening.alloys import (
     ALL_SYSTEMS,
@@ -33,12 +33,11 @@ from screening.alloys.query import DEFAULT_FAMILIES
 from screening.constants import HC_EV_NM
 from screening.elements import atomic_number
 from screening.epitaxy import GEOMETRIES, SubstrateSpec
+from screening.errors import echo
 from screening.hazards import ROHS_RESTRICTED
 
 DEFAULT_TOLERANCE_EV = 0.01
 DEFAULT_LIMIT = 500
-MAX_GAP_EV = 20.0
-"""Largest target gap accepted: beyond any solid (LiF, about 14 eV, has the widest)."""
 MAX_LIMIT = 100_000
 """Largest `limit` accepted (the command line prints up to this many matches)."""
 MAX_PAGE_ROWS = 1000
@@ -52,19 +51,6 @@ FINDER = ThreadPoolExecutor(max_workers=1, thread_name_prefix="finder")
 space holds up to about 200 MB for a moment; two at once would not finish sooner on a shared
 CPU, and searches spread over many threads would each leave the allocator's memory of their
 own thread held (resident memory grew to 2 GB after a burst)."""
-
-
-def _number(value: Any, name: str, rule: str, ok: Any) -> float | None:
-    """A finite number that passes `ok`, or None for an empty value."""
-    if value is None or (isinstance(value, str) and not value.strip()):
-        return None
-    try:
-        number = float(value)
-    except (TypeError, ValueError):
-        number = math.nan
-    if not (math.isfinite(number) and ok(number)):
-        raise QueryError(f"{name} must be {rule}, not {str(value)[:40]!r}")
-    return number
 
 
 def _system(text: str | None) -> str:
@@ -125,33 +111,27 @@ class MatchQuery:
         """
         if not (on or "").strip():
             raise QueryError("give a substrate (on=NAME, --on NAME), e.g. InP or GaAs")
-        gap_eV = _number(gap, "the target gap", f"a number of eV > 0 and <= {MAX_GAP_EV:g} (no "
-                         "solid's gap exceeds about 14 eV)", lambda v: 0 < v <= MAX_GAP_EV)
-        shortest = HC_EV_NM / MAX_GAP_EV
-        wl = _number(wavelength, "the target wavelength", f"a number of nm > 0 and >= "
-                     f"{shortest:.0f} (a gap of at most {MAX_GAP_EV:g} eV)",
-                     lambda v: v >= shortest)
+        gap_eV = number(gap, NumberRule("the target gap", "eV", 0.0, MAX_GAP_EV, low_open=True))
+        wl = number(wavelength, NumberRule("the target wavelength", "nm",
+                                           HC_EV_NM / MAX_GAP_EV, MAX_WAVELENGTH_NM))
         if gap_eV is not None and wl is not None:
             raise QueryError("give the target as a gap or as a wavelength, not both")
-        tol = _number(tolerance, "the gap tolerance", "a number of eV >= 0", lambda v: v >= 0)
+        tol = number(tolerance, NumberRule("the gap tolerance", "eV", 0.0, MAX_GAP_EV))
         if tol is not None and gap_eV is None and wl is None:
             raise QueryError("a gap tolerance needs a target gap or wavelength")
-        mismatch = _number(max_mismatch, "the mismatch limit",
-                           "a fraction from 0 to 1 (0.001 = 0.1 %)", lambda v: 0 <= v <= 1)
-        h = _number(thickness, "the layer thickness", "a number of nm > 0 and <= 1000000",
-                    lambda v: 0 < v <= 1e6)
+        mismatch = number(max_mismatch, NumberRule("the mismatch limit (a fraction, 0.001 = "
+                                                   "0.1 %)", "", 0.0, 1.0))
+        h = number(thickness, NumberRule("the layer thickness", "nm", 0.0, 1e6, low_open=True))
         shape = (geometry or "").strip() or "single-uncapped"
         if shape not in GEOMETRIES:
-            raise QueryError(f"unknown critical-thickness geometry {shape[:40]!r}; choose one "
+            raise QueryError(f"unknown critical-thickness geometry {echo(shape)}; choose one "
                              f"of {', '.join(GEOMETRIES)}")
         key = (sort or "").strip() or "rank"
         if key not in SORT_KEYS:
-            raise QueryError(f"cannot sort matches by {key[:40]!r}; sortable: "
+            raise QueryError(f"cannot sort matches by {echo(key)}; sortable: "
                              f"{', '.join(SORT_KEYS)}")
-        count = _number(limit, "limit", f"a whole number from 1 to {MAX_LIMIT}",
-                        lambda v: v == int(v) and 1 <= v <= MAX_LIMIT)
-        skip = _number(offset, "offset", f"a whole number from 0 to {MAX_OFFSET}",
-                       lambda v: v == int(v) and 0 <= v <= MAX_OFFSET)
+        count = number(limit, NumberRule("limit", "", 1, MAX_LIMIT, whole=True))
+        skip = number(offset, NumberRule("offset", "", 0, MAX_OFFSET, whole=True))
         return cls(system=_system(system), on=(on or "").strip(), gap=gap_eV, wavelength=wl,
                    tolerance=tol, temperature=parse_temperature(temperature),
                    max_mismatch=mismatch, thickness=h, geometry=shape,

@@ -16,7 +16,7 @@ from typing import Any
 
 @lru_cache(maxsize=1)
 def _trim() -> Any:
-    """glibc's `malloc_trim`, or None where the C library has none."""
+    """Glibc's `malloc_trim`, or None where the C library has none."""
     name = ctypes.util.find_library("c")
     try:
         return getattr(ctypes.CDLL(name), "malloc_trim", None) if name else None

@@ -8,7 +8,6 @@ composition page's `on=`), `add_substrate` checks and stores one of the user's, 
 
 from __future__ import annotations
 
-import math
 import re
 from typing import Any
 
@@ -17,11 +16,12 @@ from sqlalchemy.exc import IntegrityError
 from sqlalchemy.orm import Session
 
 from app.models import UserSubstrate
-from app.params import QueryError
+from app.numbers import NumberRule
+from app.params import QueryError, number
 from app.text_rules import plain_text
 from app.writes import utc_now, writing
 from screening.epitaxy import SubstrateSpec, substrate_from, substrate_spec
-from screening.errors import UnknownSubstrateError
+from screening.errors import UnknownSubstrateError, echo
 from screening.reference import substrates
 
 STRUCTURE_CHOICES: tuple[str, ...] = (
@@ -50,14 +50,10 @@ class SubstrateNotFound(QueryError):
 
 
 def _number(value: Any, name: str, low: float, high: float) -> float:
-    try:
-        number = float(value)
-    except (TypeError, ValueError):
-        number = math.nan
-    if not (math.isfinite(number) and low < number < high):
-        raise QueryError(f"{name} must be a number of angstrom between {low:g} and {high:g} "
-                         f"(exclusive), not {str(value)[:40]!r}")
-    return number
+    value = number(value, NumberRule(name, "angstrom", low, high, low_open=True))
+    if value is None:
+        raise QueryError(f"{name} must be a number of angstrom above {low:g} to {high:g}")
+    return value
 
 
 def _built_in_name(name: str) -> str | None:
@@ -75,7 +71,7 @@ def check_substrate(*, name: str, structure: str, a_angstrom: Any,
     """
     clean = (name or "").strip()
     if not NAME_PATTERN.fullmatch(clean):
-        raise QueryError(f"substrate name {clean[:50]!r} is not accepted: {NAME_RULE}")
+        raise QueryError(f"substrate name {echo(clean)} is not accepted: {NAME_RULE}")
     built_in = _built_in_name(clean)
     if built_in:
         raise SubstrateConflict(f"{built_in!r} is a built-in substrate; choose another name")
@@ -121,7 +117,7 @@ def resolve_substrate(session: Session | None, name: str) -> SubstrateSpec:
     users = [] if session is None else list(session.scalars(select(UserSubstrate.name)))
     yours = f"; yours: {', '.join(users)}" if users else ""
     raise UnknownSubstrateError(
-        f"unknown substrate {clean[:50]!r}; built-in: {', '.join(substrates())}{yours} "
+        f"unknown substrate {echo(clean)}; built-in: {', '.join(substrates())}{yours} "
         "(add your own on the substrates page or with `bondgap substrates add`)"
     )
 
@@ -184,4 +180,4 @@ def delete_substrate(session: Session, name: str) -> None:
     with writing(session):
         done = session.execute(delete(UserSubstrate).where(UserSubstrate.name == name))
         if not done.rowcount:
-            raise SubstrateNotFound(f"you have no substrate named {name[:50]!r}")
+            raise SubstrateNotFound(f"you have no substrate named {echo(name)}")

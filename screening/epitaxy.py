@@ -208,8 +208,8 @@ def reduced_thickness(k: ArrayLike) -> NDArray[np.float64]:
     With u = ln t + 1 the equation reads u - 1 - ln u = ln K, whose left side is convex and
     rises from 0 at u = 1. Newton's method started above the root, at
     u0 = 1 + ln K + ln(1 + ln K + sqrt(2 ln K)), falls to it monotonically; it runs until no
-    step is larger than 1e-14 of u - 1. Real arithmetic only, and only the rows not yet converged are
-    stepped (a complex Lambert W costs several times more on a design space).
+    step is larger than 1e-14 of u - 1. Real arithmetic only, and only the rows not yet
+    converged are stepped (a complex Lambert W costs several times more on a design space).
     """
     shape = np.shape(k)
     log_k = np.log(np.asarray(k, dtype=float).reshape(-1))
@@ -228,7 +228,7 @@ def reduced_thickness(k: ArrayLike) -> NDArray[np.float64]:
 
 
 def _d_minus_log1p(d: NDArray[np.float64]) -> NDArray[np.float64]:
-    """d - ln(1 + d) for d >= 0, by its Taylor series below 1e-3 (no cancellation)."""
+    """The value of d - ln(1 + d) for d >= 0, by its Taylor series below 1e-3 (exact there)."""
     small = d < 1e-3
     out = d - np.log1p(d)
     x = d[small]

@@ -12,6 +12,7 @@ from screening.alloys.endpoints import endpoint_gaps
 from screening.alloys.finder import find_compositions, select_systems
 from screening.alloys.formula import Alloy, format_alloy, parse_alloy, parse_material
 from screening.alloys.interpolation import COMPOSITION_LAWS, default_bowing
+from screening.alloys.paging import ORDER_KEYS, Page
 from screening.alloys.properties import (
     AlloyProperties,
     EpitaxyResult,
@@ -19,7 +20,6 @@ from screening.alloys.properties import (
     formula_properties,
     on_substrate,
 )
-from screening.alloys.paging import ORDER_KEYS, Page
 from screening.alloys.query import ALL_SYSTEMS, FinderQuery, GapWindow
 from screening.alloys.results import JSON_KEYS, MATCH_KINDS, AlloyMatch, FinderResult
 from screening.alloys.systems import AlloySystem, design_space_systems, parse_system

@@ -32,8 +32,8 @@ from screening import epitaxy
 from screening.alloys.bandgap import band_gap, gap_tables, gap_uncertainty
 from screening.alloys.design import DesignSpace, design_space, grid_count
 from screening.alloys.model import vegard
-from screening.alloys.properties import VALLEY_NAMES, check_lattice
 from screening.alloys.paging import Page, page_rows, value_keys
+from screening.alloys.properties import VALLEY_NAMES, check_lattice
 from screening.alloys.query import ALL_SYSTEMS, FinderQuery, GapWindow
 from screening.alloys.results import MATCH_KINDS, FinderResult
 from screening.alloys.roots import gap_roots_on_grid, gap_roots_on_paths, lattice_matched

@@ -16,7 +16,7 @@ from dataclasses import dataclass
 import numpy as np
 from numpy.typing import NDArray
 
-from screening.errors import OutOfRangeError, UnknownChoiceError
+from screening.errors import OutOfRangeError, UnknownChoiceError, echo
 
 ORDER_KEYS: tuple[str, ...] = (
     "rank", "formula", "lattice_constant_angstrom", "mismatch", "abs_mismatch", "band_gap_eV",
@@ -49,7 +49,7 @@ class Page:
             OutOfRangeError: A negative offset or a limit below 1.
         """
         if self.order not in ORDER_KEYS:
-            raise UnknownChoiceError(f"cannot order matches by {self.order[:40]!r}; choose one "
+            raise UnknownChoiceError(f"cannot order matches by {echo(self.order)}; choose one "
                                      f"of {', '.join(ORDER_KEYS)}")
         if self.offset < 0:
             raise OutOfRangeError(f"page offset {self.offset}: give a whole number >= 0")
