@@ -16,7 +16,7 @@ from __future__ import annotations
 import unicodedata
 from typing import Annotated, Any
 
-from pydantic import AfterValidator
+from pydantic import AfterValidator, Strict
 
 from app.params import QueryError
 
@@ -105,3 +105,6 @@ def _no_surrogates(value: str) -> str:
 
 JsonText = Annotated[str, AfterValidator(_no_surrogates)]
 """A string field of a JSON body: unpaired surrogates are refused (422) before any check."""
+
+JsonNumber = Annotated[float, Strict()]
+"""A number field of a JSON body: a JSON number only (`true`, `"1.5"` are refused, 422)."""

@@ -71,3 +71,23 @@ def test_table_windows_have_a_stated_range(client, params: dict, words: str) -> 
     assert response.status_code == 400, response.text[:200]
     detail = response.json()["detail"]
     assert words in detail and " to " in detail, detail
+
+
+@pytest.mark.parametrize(("path", "body"), [
+    ("/api/shortlists", {"name": "Numbers", "temperature_K": True}),
+    ("/api/shortlists", {"name": "Numbers", "target_gap_eV": True}),
+    ("/api/substrates", {"name": "Mine", "structure": "zincblende", "a_angstrom": True}),
+    ("/api/substrates", {"name": "Mine", "structure": "zincblende", "a_angstrom": "5.6"}),
+])
+def test_json_numbers_are_numbers(client, path: str, body: dict) -> None:
+    # Issue 10, defect 5: JSON `true` was taken as the number 1.
+    response = client.post(path, json=body)
+    assert response.status_code == 422, response.text[:200]
+
+
+@pytest.mark.parametrize("value", ["1_000", "\uff13\uff10\uff10", "300\u200b", "0x12c"])
+def test_query_numbers_are_plain_decimals(client, value: str) -> None:
+    # Issue 10, defect 5: `temperature=1_000` and full-width digits were accepted.
+    response = client.get("/api/compounds", params={"temperature": value})
+    assert response.status_code == 400
+    assert response.json()["detail"].startswith("temperature must be a number of K from 0 to")
