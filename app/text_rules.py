@@ -4,11 +4,12 @@ Text is stored NFC-normalised with its outer spaces removed. Everywhere refused:
 surrogates (a JSON body can carry them; they cannot be stored or shown as UTF-8), control
 characters other than line breaks and tabs in notes, and the bidirectional overrides and
 isolates (U+202A..U+202E, U+2066..U+2069) that can make text display differently from what is
-stored, the Unicode line and paragraph separators, and the zero-width characters
-(U+200B, U+2060, U+FEFF) that make two texts that look alike differ. Names are one line of letters, digits, spaces, punctuation and symbols, without the
-markup and quoting characters < > " ` and the backslash (and no other kind of space), so a
-name reads the same wherever it is shown: a page, a chart, a file name, a terminal.
-Each check raises `QueryError` with one line saying what was wrong and what is accepted.
+stored, the Unicode line and paragraph separators, and the zero-width characters (U+200B,
+U+2060, U+FEFF) that make two texts that look alike differ. Names are one line of letters,
+digits, spaces, punctuation and symbols, without the markup and quoting characters < > " ` and
+the backslash (and no other kind of space), so a name reads the same wherever it is shown: a
+page, a chart, a file name, a terminal. Each check raises `QueryError` with one line saying what
+was wrong and what is accepted.
 """
 
 from __future__ import annotations

@@ -50,6 +50,10 @@ COS_60: Final[float] = 0.5
 
 ANGSTROM_PER_NM: Final[float] = 10.0
 
+LATTICE_RANGE_ANGSTROM: Final[tuple[float, float]] = (1.0, 100.0)
+"""Lattice constants a substrate may have (A): every crystal's lies well inside (diamond,
+3.57 A; the largest common substrates about 6.5 A); beyond it mismatches overflow."""
+
 _NEWTON_STEPS: Final[int] = 40
 """Most Newton steps of :func:`reduced_thickness` (it needs fewer than ten)."""
 
@@ -116,17 +120,27 @@ def misfit_geometry(name: str) -> MisfitGeometry:
 
 def lattice_mismatch(a_layer_angstrom: ArrayLike, a_substrate_angstrom: ArrayLike
                      ) -> NDArray[np.float64]:
-    """Lattice mismatch f = (a_layer - a_sub) / a_sub (fraction; > 0: layer compressed)."""
+    """Lattice mismatch f = (a_layer - a_sub) / a_sub (fraction; > 0: layer compressed).
+
+    As a_layer / a_sub - 1 (the difference of two huge constants would overflow); a ratio
+    beyond the largest double is an infinite mismatch, its true limit (no warning).
+    """
     a_layer = np.asarray(a_layer_angstrom, dtype=float)
     a_sub = np.asarray(a_substrate_angstrom, dtype=float)
-    return (a_layer - a_sub) / a_sub
+    with np.errstate(over="ignore"):
+        return a_layer / a_sub - 1.0
 
 
 def in_plane_strain(a_layer_angstrom: ArrayLike, a_substrate_angstrom: ArrayLike
                     ) -> NDArray[np.float64]:
-    """Pseudomorphic in-plane strain eps_par = (a_sub - a_layer) / a_layer (< 0: compressive)."""
+    """Pseudomorphic in-plane strain eps_par = (a_sub - a_layer) / a_layer (< 0: compressive).
+
+    As a_sub / a_layer - 1, infinite (its limit, no warning) for a ratio beyond the doubles:
+    the critical thickness of such a layer is 0.
+    """
     a_layer = np.asarray(a_layer_angstrom, dtype=float)
-    return (np.asarray(a_substrate_angstrom, dtype=float) - a_layer) / a_layer
+    with np.errstate(over="ignore"):
+        return np.asarray(a_substrate_angstrom, dtype=float) / a_layer - 1.0
 
 
 def perpendicular_strain_001(in_plane: ArrayLike, c11_GPa: ArrayLike, c12_GPa: ArrayLike
@@ -166,10 +180,9 @@ def matthews_blakeslee_k(strain: ArrayLike, poisson: ArrayLike, geometry: str = 
     factor = misfit_geometry(geometry).factor
     eps = np.abs(np.asarray(strain, dtype=float))
     nu = np.asarray(poisson, dtype=float)
-    numerator = 1.0 - nu * cos_alpha**2
-    denominator = factor * np.pi * eps * (1.0 + nu) * cos_lambda
-    with np.errstate(divide="ignore", invalid="ignore"):
-        k = np.where(eps > _MATCHED_STRAIN, numerator / denominator, np.inf)
+    per_strain = (1.0 - nu * cos_alpha**2) / (factor * np.pi * (1.0 + nu) * cos_lambda)
+    with np.errstate(divide="ignore", invalid="ignore"):  # eps = 0 is answered by the where
+        k = np.where(eps > _MATCHED_STRAIN, per_strain / eps, np.inf)
     return np.where(np.isnan(eps) | np.isnan(nu), np.nan, k)
 
 
@@ -385,9 +398,10 @@ def substrate_from(name: str, structure: str, lattice_a_angstrom: float) -> Subs
             f"{', '.join(LATTICE_OF_SUBSTRATE)}"
         )
     a = float(lattice_a_angstrom)
-    if not np.isfinite(a) or a <= 0.0:
+    low, high = LATTICE_RANGE_ANGSTROM
+    if not (np.isfinite(a) and low <= a <= high):
         raise OutOfRangeError(f"substrate lattice constant {lattice_a_angstrom!r} A: give a "
-                              "finite number > 0")
+                              f"number from {low:g} to {high:g}")
     if structure == "corundum":
         return SubstrateSpec(name, "hexagonal", a / np.sqrt(3.0),
                              "a / sqrt(3): c-plane layers grow rotated by 30 degrees")

@@ -36,7 +36,8 @@ class ConditionsIn(BaseModel):
     """Conditions as JSON; each field optional."""
 
     substrate: JsonText | None = Field(None, description="Substrate name (built-in or yours)")
-    temperature_K: JsonNumber | None = Field(None, description="Temperature of the gaps, 0 to 2000 K")
+    temperature_K: JsonNumber | None = Field(None,
+                                             description="Temperature of the gaps, 0 to 2000 K")
     target_gap_eV: JsonNumber | None = Field(None, description="Target band gap, eV (0 to 15)")
     target_wavelength_nm: JsonNumber | None = Field(None, description="Target wavelength, nm "
                                                                  "(50 to 100000)")
