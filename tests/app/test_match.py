@@ -152,3 +152,24 @@ def test_finder_excludes_rohs_restricted_elements(tmp_path) -> None:
                                        check=True).stdout)
     assert any("Cd" in m["fractions"] or "Hg" in m["fractions"] for m in plain["matches"])
     assert all(not ({"Cd", "Hg", "Pb", "Cr"} & set(m["fractions"])) for m in strict["matches"])
+
+
+def test_a_huge_limit_gets_one_capped_page_and_the_next_offset(client) -> None:
+    # Issue 10, defect 4: limit=100000 over the whole design space returned 44 MB.
+    from app.finder import MAX_PAGE_ROWS
+
+    first = client.get("/api/match", params={"system": "all", "on": "GaAs",
+                                             "limit": "100000"})
+    assert first.status_code == 200
+    payload = first.json()
+    assert payload["shown"] == len(payload["matches"]) == MAX_PAGE_ROWS < payload["count"]
+    assert payload["offset"] == 0 and payload["next_offset"] == MAX_PAGE_ROWS
+    assert len(first.content) < 1_000_000
+    second = client.get("/api/match", params={"system": "all", "on": "GaAs", "limit": "100000",
+                                              "offset": str(payload["next_offset"])}).json()
+    assert second["offset"] == MAX_PAGE_ROWS and len(second["matches"]) == MAX_PAGE_ROWS
+    seen = {m["formula"] for m in payload["matches"]}
+    assert not seen & {m["formula"] for m in second["matches"]}
+    last = client.get("/api/match", params={"system": "all", "on": "GaAs", "limit": "100000",
+                                            "offset": str(payload["count"] - 3)}).json()
+    assert len(last["matches"]) == 3 and last["next_offset"] is None
