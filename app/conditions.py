@@ -14,7 +14,7 @@ from typing import Any
 
 from sqlalchemy.orm import Session
 
-from app.numbers import NumberRule
+from app.number_input import NumberRule
 from app.params import STORED_TEMPERATURE_K, QueryError, number, parse_temperature
 from app.substrates import resolve_substrate
 from screening.constants import HC_EV_NM

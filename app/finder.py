@@ -16,7 +16,7 @@ from typing import Any
 from sqlalchemy.orm import Session
 
 from app.memory import release_freed_memory
-from app.numbers import NumberRule
+from app.number_input import NumberRule
 from app.params import MAX_GAP_EV, MAX_WAVELENGTH_NM, QueryError, number, parse_temperature
 from app.substrates import resolve_substrate
 from screening.alloys import (

@@ -27,7 +27,7 @@ from sqlalchemy import delete, select, tuple_
 from sqlalchemy.orm import Session
 
 from app.models import UserMeasurement
-from app.numbers import NumberError, NumberRule, read_number
+from app.number_input import NumberError, NumberRule, read_number
 from app.params import QueryError
 from app.text_rules import plain_text
 from app.writes import utc_now, writing

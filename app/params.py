@@ -11,7 +11,7 @@ from dataclasses import asdict, dataclass
 from typing import Any
 
 from app.columns import COLUMNS_BY_KEY
-from app.numbers import NumberError, NumberRule, read_number
+from app.number_input import NumberError, NumberRule, read_number
 from screening.bands import MAX_PATH_POINTS
 from screening.constants import HC_EV_NM
 from screening.elements import FAMILIES
@@ -50,7 +50,7 @@ def _choice(value: str | None, accepted: tuple[str, ...], what: str) -> str | No
 
 
 def number(value: Any, rule: NumberRule) -> float | None:
-    """Read a typed number within its rule (`app.numbers`); None for an empty value.
+    """Read a typed number within its rule (`app.number_input`); None for an empty value.
 
     Raises:
         QueryError: Not a plain decimal number in the rule's range (one message for all).

@@ -16,7 +16,7 @@ from sqlalchemy.exc import IntegrityError
 from sqlalchemy.orm import Session
 
 from app.models import UserSubstrate
-from app.numbers import NumberRule
+from app.number_input import NumberRule
 from app.params import QueryError, number
 from app.text_rules import plain_text
 from app.writes import utc_now, writing
