@@ -9,13 +9,13 @@ the target. The target is either a band gap (eV) or a photon wavelength (nm), ne
 from __future__ import annotations
 
 import json
-import math
 from dataclasses import dataclass
 from typing import Any
 
 from sqlalchemy.orm import Session
 
-from app.params import STORED_TEMPERATURE_K, QueryError, parse_temperature
+from app.number_input import NumberRule
+from app.params import STORED_TEMPERATURE_K, QueryError, number, parse_temperature
 from app.substrates import resolve_substrate
 from screening.constants import HC_EV_NM
 from screening.epitaxy import SubstrateSpec
@@ -26,17 +26,8 @@ TARGET_WAVELENGTH_RANGE_NM = (50.0, 100_000.0)
 
 def _positive(value: Any, name: str, unit: str, bounds: tuple[float, float]) -> float | None:
     """A number inside `bounds` (exclusive); None for an empty value."""
-    if value is None or (isinstance(value, str) and not value.strip()):
-        return None
-    try:
-        number = float(value)
-    except (TypeError, ValueError):
-        number = math.nan
     low, high = bounds
-    if not (math.isfinite(number) and low < number < high):
-        raise QueryError(f"{name} must be a number of {unit} between {low:g} and {high:g}, "
-                         f"not {str(value)[:40]!r}")
-    return number
+    return number(value, NumberRule(name, unit, low, high, low_open=True))
 
 
 @dataclass(frozen=True)

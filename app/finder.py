@@ -1,27 +1,31 @@
 """The composition finder as the app asks it: one checked query, one run, one payload.
 
 `MatchQuery.parse` checks what a user typed (form, URL or CLI); `run_match` resolves the
-substrate (built-in or the user's), runs the engine's `find_compositions`, and orders the
-matches; `match_payload` is the object of `GET /api/match` and `bondgap match --json`, and the
-finder page renders the same rows.
+substrate (built-in or the user's) and asks the engine's `find_compositions` for one page of
+matches in the asked order (`offset`, `limit`; the web app caps a page at `MAX_PAGE_ROWS`);
+`match_payload` is the object of `GET /api/match` and `bondgap match --json`, and the finder
+page renders the same rows.
 """
 
 from __future__ import annotations
 
-import math
-from dataclasses import asdict, dataclass, fields, replace
+from concurrent.futures import ThreadPoolExecutor
+from dataclasses import asdict, dataclass, replace
 from typing import Any
 
-import numpy as np
 from sqlalchemy.orm import Session
 
-from app.params import QueryError, parse_temperature
+from app.memory import release_freed_memory
+from app.number_input import NumberRule
+from app.params import MAX_GAP_EV, MAX_WAVELENGTH_NM, QueryError, number, parse_temperature
 from app.substrates import resolve_substrate
 from screening.alloys import (
     ALL_SYSTEMS,
+    ORDER_KEYS,
     FinderQuery,
     FinderResult,
     GapWindow,
+    Page,
     find_compositions,
     parse_system,
 )
@@ -29,31 +33,24 @@ from screening.alloys.query import DEFAULT_FAMILIES
 from screening.constants import HC_EV_NM
 from screening.elements import atomic_number
 from screening.epitaxy import GEOMETRIES, SubstrateSpec
+from screening.errors import echo
 from screening.hazards import ROHS_RESTRICTED
 
 DEFAULT_TOLERANCE_EV = 0.01
 DEFAULT_LIMIT = 500
-MAX_GAP_EV = 20.0
-"""Largest target gap accepted: beyond any solid (LiF, about 14 eV, has the widest)."""
 MAX_LIMIT = 100_000
-SORT_KEYS: tuple[str, ...] = (
-    "rank", "formula", "lattice_constant_angstrom", "mismatch", "abs_mismatch", "band_gap_eV",
-    "band_gap_uncertainty_eV", "wavelength_nm", "critical_thickness_nm",
-)
+"""Largest `limit` accepted (the command line prints up to this many matches)."""
+MAX_PAGE_ROWS = 1000
+"""Most matches in one answer of the web app (API and page); the rest come by `offset`."""
+MAX_OFFSET = 1_000_000
+"""Largest `offset` accepted: more compositions than the whole design space holds."""
+SORT_KEYS: tuple[str, ...] = ORDER_KEYS
 """Columns the matches can be ordered by ("rank": the finder's score, best first)."""
-
-
-def _number(value: Any, name: str, rule: str, ok: Any) -> float | None:
-    """A finite number that passes `ok`, or None for an empty value."""
-    if value is None or (isinstance(value, str) and not value.strip()):
-        return None
-    try:
-        number = float(value)
-    except (TypeError, ValueError):
-        number = math.nan
-    if not (math.isfinite(number) and ok(number)):
-        raise QueryError(f"{name} must be {rule}, not {str(value)[:40]!r}")
-    return number
+FINDER = ThreadPoolExecutor(max_workers=1, thread_name_prefix="finder")
+"""The one thread that runs finder searches, one at a time: a search over the whole design
+space holds up to about 200 MB for a moment; two at once would not finish sooner on a shared
+CPU, and searches spread over many threads would each leave the allocator's memory of their
+own thread held (resident memory grew to 2 GB after a burst)."""
 
 
 def _system(text: str | None) -> str:
@@ -99,14 +96,14 @@ class MatchQuery:
     sort: str = "rank"
     desc: bool = False
     limit: int = DEFAULT_LIMIT
+    offset: int = 0
 
     @classmethod
     def parse(cls, *, system: str | None = None, on: str | None = None, gap: Any = None,
               wavelength: Any = None, tolerance: Any = None, temperature: Any = None,
               max_mismatch: Any = None, thickness: Any = None, geometry: str | None = None,
               exclude: Any = None, no_rohs: bool = False, sort: str | None = None,
-              desc: bool = False,
-              limit: Any = None) -> MatchQuery:
+              desc: bool = False, limit: Any = None, offset: Any = None) -> MatchQuery:
         """Check raw values and return the query.
 
         Raises:
@@ -114,37 +111,38 @@ class MatchQuery:
         """
         if not (on or "").strip():
             raise QueryError("give a substrate (on=NAME, --on NAME), e.g. InP or GaAs")
-        gap_eV = _number(gap, "the target gap", f"a number of eV > 0 and <= {MAX_GAP_EV:g} (no "
-                         "solid's gap exceeds about 14 eV)", lambda v: 0 < v <= MAX_GAP_EV)
-        shortest = HC_EV_NM / MAX_GAP_EV
-        wl = _number(wavelength, "the target wavelength", f"a number of nm > 0 and >= "
-                     f"{shortest:.0f} (a gap of at most {MAX_GAP_EV:g} eV)",
-                     lambda v: v >= shortest)
+        gap_eV = number(gap, NumberRule("the target gap", "eV", 0.0, MAX_GAP_EV, low_open=True))
+        wl = number(wavelength, NumberRule("the target wavelength", "nm",
+                                           HC_EV_NM / MAX_GAP_EV, MAX_WAVELENGTH_NM))
         if gap_eV is not None and wl is not None:
             raise QueryError("give the target as a gap or as a wavelength, not both")
-        tol = _number(tolerance, "the gap tolerance", "a number of eV >= 0", lambda v: v >= 0)
+        tol = number(tolerance, NumberRule("the gap tolerance", "eV", 0.0, MAX_GAP_EV))
         if tol is not None and gap_eV is None and wl is None:
             raise QueryError("a gap tolerance needs a target gap or wavelength")
-        mismatch = _number(max_mismatch, "the mismatch limit",
-                           "a fraction from 0 to 1 (0.001 = 0.1 %)", lambda v: 0 <= v <= 1)
-        h = _number(thickness, "the layer thickness", "a number of nm > 0 and <= 1000000",
-                    lambda v: 0 < v <= 1e6)
+        mismatch = number(max_mismatch, NumberRule("the mismatch limit (a fraction, 0.001 = "
+                                                   "0.1 %)", "", 0.0, 1.0))
+        h = number(thickness, NumberRule("the layer thickness", "nm", 0.0, 1e6, low_open=True))
         shape = (geometry or "").strip() or "single-uncapped"
         if shape not in GEOMETRIES:
-            raise QueryError(f"unknown critical-thickness geometry {shape[:40]!r}; choose one "
+            raise QueryError(f"unknown critical-thickness geometry {echo(shape)}; choose one "
                              f"of {', '.join(GEOMETRIES)}")
         key = (sort or "").strip() or "rank"
         if key not in SORT_KEYS:
-            raise QueryError(f"cannot sort matches by {key[:40]!r}; sortable: "
+            raise QueryError(f"cannot sort matches by {echo(key)}; sortable: "
                              f"{', '.join(SORT_KEYS)}")
-        count = _number(limit, "limit", f"a whole number from 1 to {MAX_LIMIT}",
-                        lambda v: v == int(v) and 1 <= v <= MAX_LIMIT)
+        count = number(limit, NumberRule("limit", "", 1, MAX_LIMIT, whole=True))
+        skip = number(offset, NumberRule("offset", "", 0, MAX_OFFSET, whole=True))
         return cls(system=_system(system), on=(on or "").strip(), gap=gap_eV, wavelength=wl,
                    tolerance=tol, temperature=parse_temperature(temperature),
                    max_mismatch=mismatch, thickness=h, geometry=shape,
                    exclude=_elements(exclude), no_rohs=bool(no_rohs), sort=key,
                    desc=bool(desc),
-                   limit=DEFAULT_LIMIT if count is None else int(count))
+                   limit=DEFAULT_LIMIT if count is None else int(count),
+                   offset=0 if skip is None else int(skip))
+
+    def capped(self) -> MatchQuery:
+        """The query with at most `MAX_PAGE_ROWS` matches per answer (for the web app)."""
+        return replace(self, limit=min(self.limit, MAX_PAGE_ROWS))
 
     @property
     def temperature_K(self) -> float:
@@ -166,7 +164,7 @@ class MatchQuery:
     def as_params(self) -> dict[str, Any]:
         """The query as URL parameters (only those set), for links and the API echo."""
         params = {k: v for k, v in asdict(self).items()
-                  if v is not None and v is not False and v != ()}
+                  if v is not None and v is not False and v != () and (k, v) != ("offset", 0)}
         if self.exclude:
             params["exclude"] = ",".join(self.exclude)
         return params
@@ -174,52 +172,30 @@ class MatchQuery:
 
 @dataclass(frozen=True)
 class MatchRun:
-    """A query, its substrate, the engine's result in the asked order, the ranked result."""
+    """A query, its substrate, and the page of matches it asked for (in the asked order)."""
 
     query: MatchQuery
     substrate: SubstrateSpec
     window: GapWindow | None
     result: FinderResult
-    ranked: FinderResult
+
+    @property
+    def next_offset(self) -> int | None:
+        """Offset of the next page, or None on the last page."""
+        after = self.result.offset + len(self.result)
+        return after if after < self.result.match_count else None
 
 
-def _column(result: FinderResult, key: str) -> np.ndarray:
-    """Values of a sortable numeric column over every match."""
-    if key == "abs_mismatch":
-        return np.abs(result.mismatch)
-    if key == "wavelength_nm":
-        gap = result.band_gap_eV
-        return np.where(gap > 0, HC_EV_NM / np.where(gap > 0, gap, 1.0), np.nan)
-    if key == "critical_thickness_nm":
-        return result.critical_thickness_nm
-    return np.asarray(getattr(result, key), dtype=float)
-
-
-def _order(result: FinderResult, key: str, desc: bool) -> np.ndarray:
-    """Permutation of the matches by a column; NaN values go last in either direction."""
-    if key == "rank":
-        return np.arange(len(result))
-    if key == "formula":  # by system name, then by the fractions in element order
-        names = np.array([s.name for s in result.systems] or [""])[result.system_index]
-        order = np.lexsort((*result.fractions.T[::-1], names))
-        return order[::-1] if desc else order
-    values = _column(result, key)
-    present = np.flatnonzero(~np.isnan(values))
-    order = present[np.argsort(-values[present] if desc else values[present], kind="stable")]
-    return np.concatenate([order, np.flatnonzero(np.isnan(values))])
-
-
-def reorder(result: FinderResult, order: np.ndarray) -> FinderResult:
-    """The same result with its matches in another order."""
-    n = len(result)
-    moved = {f.name: getattr(result, f.name)[order] for f in fields(result)
-             if isinstance(getattr(result, f.name), np.ndarray)
-             and getattr(result, f.name).shape[:1] == (n,)}
-    return replace(result, **moved)
+def _search(query: FinderQuery, page: Page) -> FinderResult:
+    """One search, then the memory its arrays held given back (in the finder's thread)."""
+    try:
+        return find_compositions(query, page)
+    finally:
+        release_freed_memory()
 
 
 def run_match(session: Session | None, query: MatchQuery) -> MatchRun:
-    """Resolve the substrate, run the finder, order the matches.
+    """Resolve the substrate, run the finder for the query's page of matches.
 
     Raises:
         BondgapInputError: Unknown substrate, a system of the other lattice kind than the
@@ -227,11 +203,12 @@ def run_match(session: Session | None, query: MatchQuery) -> MatchRun:
     """
     substrate = resolve_substrate(session, query.on)
     window = query.window()
-    ranked = find_compositions(FinderQuery(
+    result = FINDER.submit(_search, FinderQuery(
         substrate=substrate, system=query.system, gap=window,
         temperature_K=query.temperature_K, max_mismatch=query.max_mismatch,
         layer_thickness_nm=query.thickness,
         exclude_elements=query.exclude + (tuple(ROHS_RESTRICTED) if query.no_rohs else ()),
-        geometry=query.geometry, families=DEFAULT_FAMILIES))
-    ordered = reorder(ranked, _order(ranked, query.sort, query.desc))
-    return MatchRun(query, substrate, window, ordered, ranked)
+        geometry=query.geometry, families=DEFAULT_FAMILIES),
+        Page(order=query.sort, descending=query.desc, offset=query.offset,
+             limit=query.limit)).result()
+    return MatchRun(query, substrate, window, result)

@@ -47,9 +47,7 @@ def _chart_systems(run: MatchRun) -> tuple[list[AlloySystem], int]:
     """Systems to draw, and how many more matched than are drawn."""
     if run.query.system != "all":
         return [parse_system(run.query.system)], 0
-    ranked = run.ranked
-    _, first = np.unique(ranked.system_index, return_index=True)
-    matched = [ranked.systems[i] for i in ranked.system_index[np.sort(first)]]  # best first
+    matched = [run.result.systems[i] for i in run.result.systems_by_rank]  # best first
     return matched[:MAX_SYSTEMS], max(0, len(matched) - MAX_SYSTEMS)
 
 

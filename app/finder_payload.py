@@ -5,7 +5,9 @@ Each match carries the public keys of the issue (`formula`, `fractions`,
 `critical_thickness_nm`) and, beside them, `wavelength_nm`, `system`, `kind`, `valley`,
 `default_bowing`, `poisson_assumed` and `lattice_matched` (critical thickness infinite). An
 empty result is an answer: `matches` is empty and `message` says that no composition
-satisfies the query.
+satisfies the query. `count` is the number of matches over all pages, `shown` the number in
+this answer, `offset` the position of its first match, and `next_offset` the `offset` of the
+next page (null on the last page).
 """
 
 from __future__ import annotations
@@ -20,9 +22,9 @@ from screening.epitaxy import MISMATCH_CONVENTION
 
 
 def match_rows(run: MatchRun) -> list[dict[str, Any]]:
-    """The first `limit` matches in the asked order, as JSON-ready dicts."""
+    """The page of matches in the asked order, as JSON-ready dicts."""
     rows = []
-    for match in run.result.matches(run.query.limit):
+    for match in run.result.matches():
         gap = match.band_gap_eV
         rows.append({
             **match.as_dict(),
@@ -56,7 +58,7 @@ def conditions(run: MatchRun) -> str:
 
 def empty_message(run: MatchRun) -> str | None:
     """The friendly line for an empty result (None when there are matches)."""
-    if len(run.result):
+    if run.result.match_count:
         return None
     if not run.result.systems:
         return (f"no composition satisfies {conditions(run)}: no alloy system is left to "
@@ -80,8 +82,10 @@ def match_payload(run: MatchRun) -> dict[str, Any]:
     window = run.window
     return {
         "matches": rows,
-        "count": len(run.result),
+        "count": run.result.match_count,
         "shown": len(rows),
+        "offset": run.result.offset,
+        "next_offset": run.next_offset,
         "query": run.query.as_params(),
         "conditions": conditions(run),
         "message": empty_message(run),

@@ -19,7 +19,6 @@ from __future__ import annotations
 
 import csv
 import io
-import math
 import uuid
 from collections.abc import Iterator
 from typing import Any
@@ -28,7 +27,9 @@ from sqlalchemy import delete, select, tuple_
 from sqlalchemy.orm import Session
 
 from app.models import UserMeasurement
+from app.number_input import NumberError, NumberRule, read_number
 from app.params import QueryError
+from app.text_rules import plain_text
 from app.writes import utc_now, writing
 
 MAX_BYTES = 1_000_000
@@ -137,17 +138,27 @@ def _value(raw: str, prop: str, unit_text: str) -> tuple[float, str]:
         shown = ", ".join(u or "(empty)" for u in factors)
         raise ValueError("unit", f"unit {unit_text.strip()[:20]!r} is not accepted for {prop}; "
                          f"accepted: {shown}")
+    factor = lowered[unit]
+    rule = NumberRule(f"a {prop} value", unit_text.strip(), low / factor, high / factor)
     try:
-        number = float(raw.strip())
-    except ValueError:
-        number = math.nan
-    if not math.isfinite(number):
-        raise ValueError("value", f"{raw.strip()[:30]!r} is not a number")
-    value = number * lowered[unit]
-    if not low <= value <= high:
-        raise ValueError("value", f"{value:g} {canonical} is outside the plausible range "
-                         f"{low:g} to {high:g} {canonical} for {prop}")
-    return value, canonical
+        number = read_number(raw, rule)
+    except NumberError as exc:
+        raise ValueError("value", str(exc)) from None
+    if number is None:
+        raise ValueError("value", f"{rule.name} must be {rule.accepted()}, not empty")
+    return number * factor, canonical
+
+
+def _source(raw: str) -> str:
+    """The source cell by the text rules of the forms (`app.text_rules`), 1 to MAX_SOURCE."""
+    try:
+        source = plain_text(raw, what="the source", max_length=MAX_SOURCE)
+    except QueryError as exc:
+        raise ValueError("source", str(exc)) from None
+    if not source:
+        raise ValueError("source", f"give a source of 1 to {MAX_SOURCE} characters on one "
+                         "line (where the value comes from)")
+    return source
 
 
 def _formula(raw: str) -> str:
@@ -196,10 +207,7 @@ def parse_measurements(data: bytes) -> list[dict[str, Any]]:
                                  f"{', '.join(UNITS)}")
             value, unit = _value(cell["value"], prop, cell["unit"])
             formula = _formula(cell["formula"])
-            source = cell["source"].strip()
-            if not source or len(source) > MAX_SOURCE or any(ord(ch) < 32 for ch in source):
-                raise ValueError("source", f"give a source of 1 to {MAX_SOURCE} characters "
-                                 "on one line (where the value comes from)")
+            source = _source(cell["source"])
             if (formula, prop) in seen:
                 raise ValueError("property", f"{formula} {prop} is given twice (first on line "
                                  f"{seen[formula, prop]})")

@@ -5,8 +5,8 @@ keys each answer on the request (path, query, Host, Cookie) and on the state of 
 and its write-ahead log (size and modification time): any committed change, by this server or
 by another program such as the command line, moves that state and so retires every entry.
 Exports (which carry the time they were made) are never kept. Only 200 answers without
-Set-Cookie, of HTML, JSON or CSV, up to `MAX_BODY_BYTES`, are kept;
-at most `MAX_ENTRIES` of them (least recently used first out).
+Set-Cookie, of HTML, JSON or CSV, up to `MAX_BODY_BYTES`, are kept; at most `MAX_ENTRIES` of
+them and at most `MAX_TOTAL_BYTES` together (least recently used first out).
 """
 
 from __future__ import annotations
@@ -21,8 +21,11 @@ from starlette.types import ASGIApp, Message, Receive, Scope, Send
 MAX_ENTRIES = 256
 """Most answers kept."""
 
-MAX_BODY_BYTES = 2_000_000
-"""Largest answer kept, bytes."""
+MAX_BODY_BYTES = 1_000_000
+"""Largest answer kept, bytes (a finder answer of 1000 matches is about 0.5 MB)."""
+
+MAX_TOTAL_BYTES = 32_000_000
+"""Most bytes of answers kept together (bodies and headers)."""
 
 _CACHEABLE_TYPES = (b"text/html", b"application/json", b"text/csv")
 
@@ -43,6 +46,7 @@ class PageCache:
         self.db_path = Path(db_path)
         self.wal_path = Path(f"{db_path}-wal")
         self.entries: OrderedDict[tuple[Any, ...], tuple[int, list[Any], bytes]] = OrderedDict()
+        self.bytes_kept = 0
 
     def _key(self, scope: Scope) -> tuple[Any, ...]:
         headers = dict(scope.get("headers") or ())
@@ -88,6 +92,19 @@ class PageCache:
             and key == self._key(scope)  # the data did not change while answering
         )
         if cacheable:
-            self.entries[key] = (200, list(headers), b"".join(chunks))
-            while len(self.entries) > MAX_ENTRIES:
-                self.entries.popitem(last=False)
+            self._keep(key, (200, list(headers), b"".join(chunks)))
+
+    def _keep(self, key: tuple[Any, ...], entry: tuple[int, list[Any], bytes]) -> None:
+        """Add an answer; drop the least recently used ones beyond the count and byte bounds."""
+        old = self.entries.pop(key, None)
+        if old is not None:
+            self.bytes_kept -= _size(old)
+        self.entries[key] = entry
+        self.bytes_kept += _size(entry)
+        while len(self.entries) > MAX_ENTRIES or self.bytes_kept > MAX_TOTAL_BYTES:
+            self.bytes_kept -= _size(self.entries.popitem(last=False)[1])
+
+
+def _size(entry: tuple[int, list[Any], bytes]) -> int:
+    """Bytes an entry holds: its body and its headers."""
+    return len(entry[2]) + sum(len(name) + len(value) for name, value in entry[1])

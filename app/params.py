@@ -7,14 +7,15 @@ database only as bound parameters, and sort keys only through `app.columns.COLUM
 
 from __future__ import annotations
 
-import math
 from dataclasses import asdict, dataclass
 from typing import Any
 
 from app.columns import COLUMNS_BY_KEY
+from app.number_input import NumberError, NumberRule, read_number
 from screening.bands import MAX_PATH_POINTS
+from screening.constants import HC_EV_NM
 from screening.elements import FAMILIES
-from screening.errors import BondgapInputError
+from screening.errors import BondgapInputError, echo
 from screening.hazards import parse_excluded
 from screening.report import MAX_TEMPERATURE_K
 from screening.structure import STRUCTURES
@@ -32,6 +33,10 @@ STORED_TEMPERATURE_K = 300.0
 DEFAULT_POINTS = 400
 """Default number of k-points along the band path."""
 MIN_POINTS = 6
+MAX_GAP_EV = 20.0
+"""Largest band gap a query may name: beyond any solid (LiF, about 14 eV, has the widest)."""
+MAX_WAVELENGTH_NM = 1e6
+"""Longest photon wavelength a query may name: 1 mm, a gap of about 1.2 meV."""
 
 
 def _choice(value: str | None, accepted: tuple[str, ...], what: str) -> str | None:
@@ -41,30 +46,28 @@ def _choice(value: str | None, accepted: tuple[str, ...], what: str) -> str | No
     for option in accepted:
         if option.lower() == value.strip().lower():
             return option
-    raise QueryError(f"unknown {what} {value.strip()[:40]!r}; accepted: {', '.join(accepted)}")
+    raise QueryError(f"unknown {what} {echo(value.strip())}; accepted: {', '.join(accepted)}")
 
 
-def _number(value: float | str | None, name: str, unit: str) -> float | None:
-    """Read a finite number; None for an empty value."""
-    if value is None or (isinstance(value, str) and not value.strip()):
-        return None
+def number(value: Any, rule: NumberRule) -> float | None:
+    """Read a typed number within its rule (`app.number_input`); None for an empty value.
+
+    Raises:
+        QueryError: Not a plain decimal number in the rule's range (one message for all).
+    """
     try:
-        number = float(value)
-    except ValueError:
-        number = math.nan
-    if not math.isfinite(number):
-        raise QueryError(f"{name} must be a finite number of {unit}, not {str(value)[:40]!r}")
-    return number
+        return read_number(value, rule)
+    except NumberError as exc:
+        raise QueryError(str(exc)) from None
 
 
 def _window(
-    low: float | str | None, high: float | str | None, name: str, unit: str, *, positive: bool
+    low: float | str | None, high: float | str | None, name: str, unit: str,
+    bounds: tuple[float, float],
 ) -> tuple[float | None, float | None]:
-    """Read a (min, max) window; both ends optional, min <= max, > 0 if `positive`."""
-    lo, hi = _number(low, f"{name}-min", unit), _number(high, f"{name}-max", unit)
-    for end, value in (("min", lo), ("max", hi)):
-        if positive and value is not None and value <= 0:
-            raise QueryError(f"{name}-{end} must be a positive number of {unit}, not {value:g}")
+    """Read a (min, max) window inside `bounds`; both ends optional, min <= max."""
+    lo = number(low, NumberRule(f"{name}-min", unit, *bounds))
+    hi = number(high, NumberRule(f"{name}-max", unit, *bounds))
     if lo is not None and hi is not None and lo > hi:
         raise QueryError(
             f"empty {name} window: {name}-min {lo:g} {unit} > {name}-max {hi:g} {unit}"
@@ -72,31 +75,22 @@ def _window(
     return lo, hi
 
 
+TEMPERATURE = NumberRule("temperature", "K", 0.0, MAX_TEMPERATURE_K)
+GAP_WINDOW_EV = (0.0, MAX_GAP_EV)
+"""Range of the table's gap window, eV."""
+WAVELENGTH_WINDOW_NM = (HC_EV_NM / MAX_GAP_EV, MAX_WAVELENGTH_NM)
+"""Range of the table's wavelength window, nm (gaps from 20 eV down to about 1 meV)."""
+
+
 def parse_temperature(value: float | str | None) -> float | None:
     """Read a temperature in K (0 to 2000); None for an empty value (meaning 300 K)."""
-    number = _number(value, "temperature", "kelvin (0 to 2000)")
-    if number is not None and not 0.0 <= number <= MAX_TEMPERATURE_K:
-        raise QueryError(
-            f"temperature {number:g} K is outside the accepted range 0 to "
-            f"{MAX_TEMPERATURE_K:g} K"
-        )
-    return number
+    return number(value, TEMPERATURE)
 
 
 def parse_points(value: int | str | None) -> int:
     """Read the number of k-points of a band path (6 to 2000; default 400)."""
-    if value is None or (isinstance(value, str) and not value.strip()):
-        return DEFAULT_POINTS
-    try:
-        points = int(str(value).strip())
-    except ValueError:
-        points = -1
-    if not MIN_POINTS <= points <= MAX_PATH_POINTS:
-        raise QueryError(
-            f"points must be a whole number from {MIN_POINTS} to {MAX_PATH_POINTS}, "
-            f"not {str(value)[:40]!r}"
-        )
-    return points
+    points = number(value, NumberRule("points", "", MIN_POINTS, MAX_PATH_POINTS, whole=True))
+    return DEFAULT_POINTS if points is None else int(points)
 
 
 @dataclass(frozen=True)
@@ -152,12 +146,12 @@ class TableQuery:
                 0 to 2000 K.
             UnknownElementError: A symbol in `exclude` that is not an element.
         """
-        gap_min, gap_max = _window(gap_min, gap_max, "gap", "eV", positive=False)
-        wl_min, wl_max = _window(wl_min, wl_max, "wl", "nm", positive=True)
+        gap_min, gap_max = _window(gap_min, gap_max, "gap", "eV", GAP_WINDOW_EV)
+        wl_min, wl_max = _window(wl_min, wl_max, "wl", "nm", WAVELENGTH_WINDOW_NM)
         sort_key = (sort or "formula").strip()
         if sort_key not in COLUMNS_BY_KEY:
             raise QueryError(
-                f"cannot sort by {sort_key[:40]!r}; sortable columns: {', '.join(COLUMNS_BY_KEY)}"
+                f"cannot sort by {echo(sort_key)}; sortable columns: {', '.join(COLUMNS_BY_KEY)}"
             )
         return cls(
             family=_choice(family, FAMILY_CHOICES, "family"),

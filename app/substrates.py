@@ -9,7 +9,6 @@ unique, and found, by one folding rule (`app.names`), on the stored `name_key` o
 
 from __future__ import annotations
 
-import math
 import re
 from typing import Any
 
@@ -19,11 +18,12 @@ from sqlalchemy.orm import Session
 
 from app.models import UserSubstrate
 from app.names import name_key
-from app.params import QueryError
+from app.number_input import NumberRule
+from app.params import QueryError, number
 from app.text_rules import plain_text
 from app.writes import utc_now, writing
 from screening.epitaxy import SubstrateSpec, substrate_from, substrate_spec
-from screening.errors import UnknownSubstrateError
+from screening.errors import UnknownSubstrateError, echo
 from screening.reference import substrates
 
 STRUCTURE_CHOICES: tuple[str, ...] = (
@@ -52,14 +52,10 @@ class SubstrateNotFound(QueryError):
 
 
 def _number(value: Any, name: str, low: float, high: float) -> float:
-    try:
-        number = float(value)
-    except (TypeError, ValueError):
-        number = math.nan
-    if not (math.isfinite(number) and low < number < high):
-        raise QueryError(f"{name} must be a number of angstrom between {low:g} and {high:g} "
-                         f"(exclusive), not {str(value)[:40]!r}")
-    return number
+    value = number(value, NumberRule(name, "angstrom", low, high, low_open=True))
+    if value is None:
+        raise QueryError(f"{name} must be a number of angstrom above {low:g} to {high:g}")
+    return value
 
 
 def _built_in_name(name: str) -> str | None:
@@ -78,7 +74,7 @@ def check_substrate(*, name: str, structure: str, a_angstrom: Any,
     """
     clean = (name or "").strip()
     if not NAME_PATTERN.fullmatch(clean):
-        raise QueryError(f"substrate name {clean[:50]!r} is not accepted: {NAME_RULE}")
+        raise QueryError(f"substrate name {echo(clean)} is not accepted: {NAME_RULE}")
     built_in = _built_in_name(clean)
     if built_in:
         raise SubstrateConflict(f"{built_in!r} is a built-in substrate; choose another name")
@@ -122,7 +118,7 @@ def resolve_substrate(session: Session | None, name: str) -> SubstrateSpec:
     users = [] if session is None else list(session.scalars(select(UserSubstrate.name)))
     yours = f"; yours: {', '.join(users)}" if users else ""
     raise UnknownSubstrateError(
-        f"unknown substrate {clean[:50]!r}; built-in: {', '.join(substrates())}{yours} "
+        f"unknown substrate {echo(clean)}; built-in: {', '.join(substrates())}{yours} "
         "(add your own on the substrates page or with `bondgap substrates add`)"
     )
 
@@ -187,6 +183,6 @@ def delete_substrate(session: Session, name: str) -> str:
     with writing(session):
         row = _user_row(session, clean)
         if row is None:
-            raise SubstrateNotFound(f"you have no substrate named {clean[:50]!r}")
+            raise SubstrateNotFound(f"you have no substrate named {echo(clean)}")
         session.delete(row)
         return row.name

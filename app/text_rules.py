@@ -4,10 +4,12 @@ Text is stored NFC-normalised with its outer spaces removed. Everywhere refused:
 surrogates (a JSON body can carry them; they cannot be stored or shown as UTF-8), control
 characters other than line breaks and tabs in notes, and the bidirectional overrides and
 isolates (U+202A..U+202E, U+2066..U+2069) that can make text display differently from what is
-stored. Names are one line of letters, digits, spaces, punctuation and symbols, without the
-markup and quoting characters < > " ` and the backslash (and no other kind of space), so a
-name reads the same wherever it is shown: a page, a chart, a file name, a terminal.
-Each check raises `QueryError` with one line saying what was wrong and what is accepted.
+stored, the Unicode line and paragraph separators, and the zero-width characters (U+200B,
+U+2060, U+FEFF) that make two texts that look alike differ. Names are one line of letters,
+digits, spaces, punctuation and symbols, without the markup and quoting characters < > " ` and
+the backslash (and no other kind of space), so a name reads the same wherever it is shown: a
+page, a chart, a file name, a terminal. Each check raises `QueryError` with one line saying what
+was wrong and what is accepted.
 """
 
 from __future__ import annotations
@@ -15,11 +17,13 @@ from __future__ import annotations
 import unicodedata
 from typing import Annotated, Any
 
-from pydantic import AfterValidator
+from pydantic import AfterValidator, Strict
 
 from app.params import QueryError
 
 BIDI_CONTROLS = frozenset("\u202a\u202b\u202c\u202d\u202e\u2066\u2067\u2068\u2069")
+INVISIBLE = frozenset("\u200b\u2060\ufeff")
+"""Zero-width characters that change what is stored but not what is shown."""
 NAME_REFUSED = frozenset('<>"\\`')
 NAME_RULE = "letters, digits, spaces, punctuation and symbols except < > \" \\ `"
 MAX_ID = 2**63 - 1
@@ -36,6 +40,10 @@ def _refused_character(text: str, *, lines: bool) -> str | None:
             return f"a bidirectional control character (U+{ord(ch):04X})"
         if category == "Cc" and not (lines and ch in "\n\t"):
             return f"a control character (U+{ord(ch):04X})"
+        if category in ("Zl", "Zp"):
+            return f"a Unicode line or paragraph separator (U+{ord(ch):04X}); use a line break"
+        if ch in INVISIBLE:
+            return f"an invisible character (U+{ord(ch):04X})"
     return None
 
 
@@ -98,3 +106,6 @@ def _no_surrogates(value: str) -> str:
 
 JsonText = Annotated[str, AfterValidator(_no_surrogates)]
 """A string field of a JSON body: unpaired surrogates are refused (422) before any check."""
+
+JsonNumber = Annotated[float, Strict()]
+"""A number field of a JSON body: a JSON number only (`true`, `"1.5"` are refused, 422)."""

@@ -83,6 +83,13 @@ class Tally:
 @contextlib.contextmanager
 def server(folder: Path) -> Iterator[str]:
     """Run `bondgap serve --port 0` on 127.0.0.1; yield its base URL; stop it by its pid."""
+    with served(folder) as (url, _pid):
+        yield url
+
+
+@contextlib.contextmanager
+def served(folder: Path) -> Iterator[tuple[str, int]]:
+    """Run `bondgap serve --port 0` on 127.0.0.1; yield its base URL and pid; stop it."""
     log_path = folder / "server.log"
     with log_path.open("w") as log:
         proc = subprocess.Popen(
@@ -91,7 +98,7 @@ def server(folder: Path) -> Iterator[str]:
             cwd=ROOT, stdout=log, stderr=subprocess.STDOUT,
             env={**os.environ, "PYTHONUNBUFFERED": "1"})
         try:
-            yield _served_url(proc, log_path)
+            yield _served_url(proc, log_path), proc.pid
         finally:
             if proc.poll() is None:
                 os.kill(proc.pid, signal.SIGTERM)

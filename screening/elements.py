@@ -8,7 +8,7 @@ from __future__ import annotations
 
 from typing import Final
 
-from screening.errors import UnknownElementError
+from screening.errors import UnknownElementError, echo
 
 OCTET_GROUPS: Final[dict[int, tuple[str, ...]]] = {
     1: ("Li", "Na", "K", "Rb", "Cu", "Ag"),
@@ -49,7 +49,7 @@ def atomic_number(symbol: str) -> int:
         return ATOMIC_NUMBER[symbol]
     except KeyError:
         raise UnknownElementError(
-            f"'{symbol}' is not a chemical element symbol from H to Rn (Z = 1..86); "
+            f"{echo(symbol)} is not a chemical element symbol from H to Rn (Z = 1..86); "
             "symbols are case-sensitive, e.g. Ga, As, Zn"
         ) from None
 

@@ -17,7 +17,8 @@ F = 8 for a single uncapped layer on a thick substrate, 4 for a capped well (two
 segments) and 2 for Matthews and Blakeslee's multilayer equation as it is often applied to
 single layers (see :data:`GEOMETRIES`). With t = h/b and
 K = (1 - nu cos^2 alpha) / (F pi |eps| (1 + nu) cos lambda) it reads t = K (ln t + 1), solved
-in closed form by t = -K W_-1(-1 / (e K)) (Lambert W, branch -1) for K >= 1; for K < 1 no
+in closed form by t = -K W_-1(-1 / (e K)) (Lambert W, branch -1) for K >= 1 (computed by
+Newton's method in real arithmetic, :func:`reduced_thickness`); for K < 1 no
 thickness above one Burgers vector is stable and 0 is returned. The energy balance of
 R. People and J. C. Bean, Appl. Phys. Lett. 47, 322 (1985) (erratum 49, 229 (1986)) is offered
 beside it. Lengths in angstrom unless a name says nm.
@@ -52,6 +53,13 @@ COS_60: Final[float] = 0.5
 """cos alpha = cos lambda = 1/2 for 60 degree dislocations gliding on {111} over (001)."""
 
 ANGSTROM_PER_NM: Final[float] = 10.0
+
+LATTICE_RANGE_ANGSTROM: Final[tuple[float, float]] = (1.0, 100.0)
+"""Lattice constants a substrate may have (A): every crystal's lies well inside (diamond,
+3.57 A; the largest common substrates about 6.5 A); beyond it mismatches overflow."""
+
+_NEWTON_STEPS: Final[int] = 40
+"""Most Newton steps of :func:`reduced_thickness` (it needs fewer than ten)."""
 
 _MATCHED_STRAIN: Final[float] = 1e-12
 """Below this |strain| a layer counts as lattice-matched: critical thickness infinite."""
@@ -116,17 +124,27 @@ def misfit_geometry(name: str) -> MisfitGeometry:
 
 def lattice_mismatch(a_layer_angstrom: ArrayLike, a_substrate_angstrom: ArrayLike
                      ) -> NDArray[np.float64]:
-    """Lattice mismatch f = (a_layer - a_sub) / a_sub (fraction; > 0: layer compressed)."""
+    """Lattice mismatch f = (a_layer - a_sub) / a_sub (fraction; > 0: layer compressed).
+
+    As a_layer / a_sub - 1 (the difference of two huge constants would overflow); a ratio
+    beyond the largest double is an infinite mismatch, its true limit (no warning).
+    """
     a_layer = np.asarray(a_layer_angstrom, dtype=float)
     a_sub = np.asarray(a_substrate_angstrom, dtype=float)
-    return (a_layer - a_sub) / a_sub
+    with np.errstate(over="ignore"):
+        return a_layer / a_sub - 1.0
 
 
 def in_plane_strain(a_layer_angstrom: ArrayLike, a_substrate_angstrom: ArrayLike
                     ) -> NDArray[np.float64]:
-    """Pseudomorphic in-plane strain eps_par = (a_sub - a_layer) / a_layer (< 0: compressive)."""
+    """Pseudomorphic in-plane strain eps_par = (a_sub - a_layer) / a_layer (< 0: compressive).
+
+    As a_sub / a_layer - 1, infinite (its limit, no warning) for a ratio beyond the doubles:
+    the critical thickness of such a layer is 0.
+    """
     a_layer = np.asarray(a_layer_angstrom, dtype=float)
-    return (np.asarray(a_substrate_angstrom, dtype=float) - a_layer) / a_layer
+    with np.errstate(over="ignore"):
+        return np.asarray(a_substrate_angstrom, dtype=float) / a_layer - 1.0
 
 
 def perpendicular_strain_001(in_plane: ArrayLike, c11_GPa: ArrayLike, c12_GPa: ArrayLike
@@ -166,10 +184,9 @@ def matthews_blakeslee_k(strain: ArrayLike, poisson: ArrayLike, geometry: str = 
     factor = misfit_geometry(geometry).factor
     eps = np.abs(np.asarray(strain, dtype=float))
     nu = np.asarray(poisson, dtype=float)
-    numerator = 1.0 - nu * cos_alpha**2
-    denominator = factor * np.pi * eps * (1.0 + nu) * cos_lambda
-    with np.errstate(divide="ignore", invalid="ignore"):
-        k = np.where(eps > _MATCHED_STRAIN, numerator / denominator, np.inf)
+    per_strain = (1.0 - nu * cos_alpha**2) / (factor * np.pi * (1.0 + nu) * cos_lambda)
+    with np.errstate(divide="ignore", invalid="ignore"):  # eps = 0 is answered by the where
+        k = np.where(eps > _MATCHED_STRAIN, per_strain / eps, np.inf)
     return np.where(np.isnan(eps) | np.isnan(nu), np.nan, k)
 
 
@@ -197,10 +214,43 @@ def matthews_blakeslee_thickness(
     k = matthews_blakeslee_k(strain, poisson, geometry, cos_alpha, cos_lambda)
     b = np.asarray(burgers_angstrom, dtype=float)
     solvable = np.isfinite(k) & (k >= 1.0)
-    safe_k = np.where(solvable, k, 1.0)
-    t = -safe_k * lambertw(-1.0 / (np.e * safe_k), k=-1).real
+    t = reduced_thickness(np.where(solvable, k, 1.0))
     h = np.where(solvable, t, np.where(np.isinf(k), np.inf, 0.0)) * b
     return np.where(np.isnan(k) | np.isnan(b), np.nan, h)
+
+
+def reduced_thickness(k: ArrayLike) -> NDArray[np.float64]:
+    """The root t >= 1 of t = K (ln t + 1) for finite K >= 1, i.e. -K W_-1(-1 / (e K)).
+
+    With u = ln t + 1 the equation reads u - 1 - ln u = ln K, whose left side is convex and
+    rises from 0 at u = 1. Newton's method started above the root, at
+    u0 = 1 + ln K + ln(1 + ln K + sqrt(2 ln K)), falls to it monotonically; it runs until no
+    step is larger than 1e-14 of u - 1. Real arithmetic only, and only the rows not yet
+    converged are stepped (a complex Lambert W costs several times more on a design space).
+    """
+    shape = np.shape(k)
+    log_k = np.log(np.asarray(k, dtype=float).reshape(-1))
+    # u - 1 (kept apart from 1 to spare the cancellation), started above the root
+    d = log_k + np.log1p(log_k + np.sqrt(2.0 * log_k))
+    active = np.flatnonzero(d > 0.0)
+    for _ in range(_NEWTON_STEPS):
+        x = d[active]
+        step = np.maximum((_d_minus_log1p(x) - log_k[active]) * (1.0 + x) / x, 0.0)
+        d[active] = x - step
+        active = active[step > 1e-14 * x]
+        if not len(active):
+            break
+    with np.errstate(over="ignore"):  # K beyond 1e306 only: t is then infinite in doubles
+        return np.exp(d).reshape(shape)
+
+
+def _d_minus_log1p(d: NDArray[np.float64]) -> NDArray[np.float64]:
+    """The value of d - ln(1 + d) for d >= 0, by its Taylor series below 1e-3 (exact there)."""
+    small = d < 1e-3
+    out = d - np.log1p(d)
+    x = d[small]
+    out[small] = sum((-1) ** n * x**n / n for n in range(8, 1, -1))
+    return out
 
 
 def matthews_blakeslee_residual(
@@ -352,9 +402,10 @@ def substrate_from(name: str, structure: str, lattice_a_angstrom: float) -> Subs
             f"{', '.join(LATTICE_OF_SUBSTRATE)}"
         )
     a = float(lattice_a_angstrom)
-    if not np.isfinite(a) or a <= 0.0:
+    low, high = LATTICE_RANGE_ANGSTROM
+    if not (np.isfinite(a) and low <= a <= high):
         raise OutOfRangeError(f"substrate lattice constant {lattice_a_angstrom!r} A: give a "
-                              "finite number > 0")
+                              f"number from {low:g} to {high:g}")
     if structure == "corundum":
         return SubstrateSpec(name, "hexagonal", a / np.sqrt(3.0),
                              "a / sqrt(3): c-plane layers grow rotated by 30 degrees")

@@ -21,20 +21,50 @@ Every message says what was wrong and what is accepted.
 """
 
 
+import re
+
+ECHO_LENGTH = 40
+"""Most characters of a user's input repeated in a message."""
+
+_LONG_WORD = re.compile(rf"\S{{{ECHO_LENGTH + 4},}}")
+"""A run without spaces longer than any word of ours: what a message echoed from the input."""
+
+
+def echo(value: object) -> str:
+    """What the user typed, quoted for a message: at most `ECHO_LENGTH` characters of it.
+
+    Messages that repeat input quote it through here, so a 100 kB value never comes back.
+    """
+    text = str(value)
+    if len(text) <= ECHO_LENGTH:
+        return repr(text)
+    return repr(text[:ECHO_LENGTH])[:-1] + "...'"
+
+
 def one_line(text: object) -> str:
     """The text on one line: control characters (line breaks, tabs, ...) shown escaped."""
     return "".join(ch if ch.isprintable() else repr(ch)[1:-1] for ch in str(text))
+
+
+def cut_echoes(text: str) -> str:
+    """The message with every run of more than `ECHO_LENGTH` + 3 non-space characters cut.
+
+    The net under `echo`: a message built from input that was not quoted through it still
+    repeats at most `ECHO_LENGTH` characters of each word of that input.
+    """
+    return _LONG_WORD.sub(lambda m: m.group()[:ECHO_LENGTH] + "...", text)
 
 
 class BondgapInputError(ValueError):
     """Base class for every kind of input the engine rejects.
 
     The message is always one line: control characters that came in with the user's text
-    (line breaks, tabs, ...) are shown escaped, as Python writes them.
+    (line breaks, tabs, ...) are shown escaped, as Python writes them; and it repeats at most
+    `ECHO_LENGTH` characters of any word of that text (`cut_echoes`).
     """
 
     def __init__(self, message: object = "", *args: object) -> None:
-        super().__init__(one_line(message), *args)
+        super().__init__(cut_echoes(one_line(message)), *args)
 
 
 class UnknownElementError(BondgapInputError):
@@ -75,3 +105,4 @@ class UnknownSubstrateError(BondgapInputError):
 
 class ConvergenceError(RuntimeError):
     """A numerical solve (for example an atomic SCF cycle) that did not converge."""
+

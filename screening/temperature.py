@@ -133,6 +133,10 @@ class ValleyLaw:
         return varshni_eV(self.eg0_eV, self.alpha_meV_per_K, self.beta_K, temperature_K)
 
 
+_COLD_X = 350.0
+"""theta / T beyond which 1 - coth(theta / T) is 0 in doubles (exp(-700) is about 1e-304)."""
+
+
 def _temperatures(temperature_K: ArrayLike) -> NDArray[np.float64]:
     t = np.asarray(temperature_K, dtype=np.float64)
     if not np.all(np.isfinite(t)) or np.any(t < 0.0):
@@ -163,8 +167,9 @@ def varshni_shift_eV(
         raise BondgapInputError(f"beta must be finite and >= 0 K, got {beta_K!r}")
     t, alpha, beta = np.broadcast_arrays(t, alpha, beta)
     denominator = t + beta
-    ratio = np.divide(t * t, denominator, out=np.zeros(t.shape), where=denominator > 0.0)
-    return -alpha * ratio
+    # T * (T / (T + beta)): T^2 itself would overflow above 1e154 K and underflow below 1e-154
+    share = np.divide(t, denominator, out=np.zeros(t.shape), where=denominator > 0.0)
+    return -alpha * (t * share)
 
 
 def varshni_eV(
@@ -206,8 +211,12 @@ def bose_einstein_eV(
     t = _temperatures(temperature_K)
     theta = np.asarray(theta_K, dtype=np.float64)
     t, theta = np.broadcast_arrays(t, theta)
-    x = np.divide(theta, t, out=np.full(t.shape, np.inf), where=t > 0.0)
-    one_minus_coth = 1.0 - 1.0 / np.tanh(x)
+    # 1 - coth x = -2 / (exp(2 x) - 1) with x = theta / T. Below T = theta / _COLD_X the term
+    # is under exp(-2 _COLD_X) (1e-304) and is 0 in doubles; theta / T is not even formed
+    # there (it overflows for T near 1e-310 K).
+    warm = t > theta / _COLD_X
+    x = np.divide(theta, t, out=np.full(t.shape, _COLD_X), where=warm)
+    one_minus_coth = np.where(warm, -2.0 / np.expm1(2.0 * x), 0.0)
     return np.asarray(eg0_eV, dtype=np.float64) + np.asarray(a_B_eV) * one_minus_coth
 
 

@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-from dataclasses import replace
 from typing import Annotated, Any
 from urllib.parse import quote, urlencode
 
@@ -10,10 +9,20 @@ from fastapi import APIRouter, Depends, Query, Request
 from fastapi.responses import RedirectResponse, Response
 
 from app.deps import SessionDep
-from app.finder import DEFAULT_LIMIT, DEFAULT_TOLERANCE_EV, SORT_KEYS, MatchQuery, run_match
+from app.finder import (
+    DEFAULT_LIMIT,
+    DEFAULT_TOLERANCE_EV,
+    MAX_LIMIT,
+    MAX_OFFSET,
+    MAX_PAGE_ROWS,
+    SORT_KEYS,
+    MatchQuery,
+    run_match,
+)
 from app.finder_chart import finder_chart
 from app.finder_payload import match_payload
-from app.params import QueryError
+from app.number_input import NumberRule
+from app.params import QueryError, number
 from app.shortlists import all_shortlists
 from app.substrates import substrate_rows
 from app.views import caution_line
@@ -37,23 +46,17 @@ COLUMNS: tuple[tuple[str, str, str], ...] = (
 )
 """Sortable columns of the results table: key, header, unit."""
 
-PAGE_MAX_ROWS = 2000
-"""Most rows the finder page shows (the API gives up to the full limit)."""
-
 PARAMS = ("system", "on", "gap", "wavelength", "tolerance", "temperature", "max_mismatch",
-          "thickness", "geometry", "sort", "desc", "limit")
+          "thickness", "geometry", "sort", "desc", "limit", "offset")
 
 PERCENT_FIELD = "max_mismatch_percent"
 """The page's form asks the mismatch limit in percent; the API's `max_mismatch` is a fraction."""
 
 
-def _percent(text: str) -> float | None:
-    """A number of percent from 0 to 100, or None if `text` is not one."""
-    try:
-        value = float(text)
-    except ValueError:
-        return None
-    return value if 0 <= value <= 100 else None  # NaN fails both comparisons
+MISMATCH_PERCENT = NumberRule("the mismatch limit", "percent", 0.0, 100.0)
+"""The finder form's mismatch limit, in percent."""
+MAX_MISMATCH_FRACTION = NumberRule("max_mismatch", "", 0.0, 1.0)
+"""The API's mismatch limit, a fraction (read here only to fill the form's percent field)."""
 
 
 def _mismatch_fraction(params: Any) -> str | None:
@@ -68,11 +71,7 @@ def _mismatch_fraction(params: Any) -> str | None:
     if (params.get("max_mismatch") or "").strip():
         raise QueryError("give the mismatch limit once: in percent (max_mismatch_percent) or "
                          "as a fraction (max_mismatch)")
-    value = _percent(text)
-    if value is None:
-        raise QueryError(f"the mismatch limit must be a number of percent from 0 to 100, not "
-                         f"{text[:40]!r}")
-    return repr(value / 100)
+    return repr(number(text, MISMATCH_PERCENT) / 100)
 
 
 def match_query(
@@ -102,32 +101,50 @@ def match_query(
         description=f"Order of the matches: {', '.join(SORT_KEYS)} (default rank)")] = None,
     desc: Annotated[bool, Query(description="Descending order")] = False,
     limit: Annotated[str | None, Query(
-        description=f"Most matches returned (default {DEFAULT_LIMIT})")] = None,
+        description=f"Most matches returned, 1 to {MAX_LIMIT} (default {DEFAULT_LIMIT}); an "
+                    f"answer holds at most {MAX_PAGE_ROWS}: ask for the rest with offset")
+    ] = None,
+    offset: Annotated[str | None, Query(
+        description=f"Matches skipped before the first one returned, 0 to {MAX_OFFSET} "
+                    "(default 0); the answer's next_offset is that of the next page")] = None,
 ) -> MatchQuery:
     """Read the finder query from the URL (shared by the page and the API)."""
     return MatchQuery.parse(system=system, on=on, gap=gap, wavelength=wavelength,
                             tolerance=tolerance, temperature=temperature,
                             max_mismatch=max_mismatch, thickness=thickness, geometry=geometry,
                             exclude=exclude, no_rohs=no_rohs, sort=sort, desc=desc,
-                            limit=limit)
+                            limit=limit, offset=offset)
 
 
 MatchQueryDep = Annotated[MatchQuery, Depends(match_query)]
 
 
-@router.get("/api/match", tags=["alloys"], summary="Composition finder", responses={
-    400: {"description": 'Bad input, as {"detail": "what was wrong and what is accepted"}'},
-    422: {"description": 'A parameter of the wrong type, as {"detail": "desc: ..."}'}})
-def api_match(session: SessionDep, query: MatchQueryDep) -> dict[str, Any]:
-    """Alloy compositions that meet a target on a substrate (as bondgap match --json).
+MATCH_DESCRIPTION = f"""Alloy compositions that meet a target on a substrate (as bondgap match
+--json).
 
-    matches: the best `limit` in the asked order, each with formula, fractions (element ->
-    fraction on its site), lattice_constant_angstrom, mismatch (fraction, sign convention in
-    mismatch_convention), band_gap_eV, band_gap_uncertainty_eV and critical_thickness_nm
-    (null when lattice-matched or not applicable); count: every match. An empty list is an
-    answer, with a message saying so.
-    """
-    return match_payload(run_match(session, query))
+matches: one page of the matches in the asked order, from `offset` on, at most `limit` and
+never more than {MAX_PAGE_ROWS}; each with formula, fractions (element -> fraction on its site),
+lattice_constant_angstrom, mismatch (fraction, sign convention in mismatch_convention),
+band_gap_eV, band_gap_uncertainty_eV and critical_thickness_nm (null when lattice-matched or
+not applicable). count: every match over all pages; shown: the matches in this answer; offset:
+the position of the first; next_offset: the offset of the next page (null on the last). An
+empty list is an answer, with a message saying so.
+
+Bounded cost: a search screens the whole design space (about 700 000 compositions for
+system=all) in slices of fixed size, one search at a time per server; only the rows of the
+page are fully computed, so an answer holds at most {MAX_PAGE_ROWS} matches (about 0.5 MB).
+"""
+
+
+@router.get("/api/match", tags=["alloys"], summary="Composition finder",
+            description=MATCH_DESCRIPTION, responses={
+                400: {"description": 'Bad input, as {"detail": "what was wrong and what is '
+                                     'accepted"}'},
+                422: {"description": 'A parameter of the wrong type, as {"detail": "desc: '
+                                     '..."}'}})
+def api_match(session: SessionDep, query: MatchQueryDep) -> dict[str, Any]:
+    """Alloy compositions that meet a target on a substrate (see `MATCH_DESCRIPTION`)."""
+    return match_payload(run_match(session, query.capped()))
 
 
 def _query_of(request: Request) -> MatchQuery:
@@ -146,6 +163,7 @@ def _headers(query: MatchQuery) -> list[dict[str, Any]]:
         active = query.sort == key
         link = {**params, "sort": key}
         link.pop("desc", None)
+        link.pop("offset", None)  # a new order starts at its first page
         if active and not query.desc and key != "rank":
             link["desc"] = "true"
         aria = ("descending" if query.desc else "ascending") if active else "none"
@@ -154,12 +172,28 @@ def _headers(query: MatchQuery) -> list[dict[str, Any]]:
     return headers
 
 
+def _page_url(query: MatchQuery, offset: int | None) -> str | None:
+    """The finder page of the same query from another offset (None for no offset)."""
+    if offset is None:
+        return None
+    params = {k: v for k, v in query.as_params().items() if k != "offset"}
+    return "/alloys?" + urlencode({**params, **({"offset": offset} if offset else {})},
+                                  doseq=True)
+
+
+def _as_percent(fraction: str | None) -> str:
+    """An old link's `max_mismatch` fraction as the form's percent ("" if it is not one)."""
+    try:
+        value = number(fraction, MAX_MISMATCH_FRACTION)
+    except QueryError:
+        return ""
+    return "" if value is None else f"{100 * value:g}"
+
+
 def _form(request: Request) -> dict[str, Any]:
     params = request.query_params
     form = {k: params.get(k, "") for k in PARAMS}
-    fraction = _percent(params.get("max_mismatch", "").strip() or "nan")
-    form[PERCENT_FIELD] = params.get(PERCENT_FIELD) or (
-        f"{100 * fraction:g}" if fraction is not None and fraction <= 1 else "")
+    form[PERCENT_FIELD] = params.get(PERCENT_FIELD) or _as_percent(params.get("max_mismatch"))
     form["no_rohs"] = params.get("no_rohs", "").lower() in ("true", "1", "on", "yes")
     form["exclude"] = [e.strip() for v in params.getlist("exclude") for e in v.split(",")
                        if e.strip()]
@@ -188,8 +222,7 @@ def finder_page(request: Request, session: SessionDep) -> Response:
     status = 200
     if request.query_params:
         try:
-            query = _query_of(request)
-            query = replace(query, limit=min(query.limit, PAGE_MAX_ROWS))
+            query = _query_of(request).capped()
             run = run_match(session, query)
         except BondgapInputError as exc:
             context["error"], status = str(exc), 400
@@ -203,6 +236,8 @@ def finder_page(request: Request, session: SessionDep) -> Response:
                 chart=finder_chart(run, payload["matches"]),
                 detail_query="?" + urlencode(on),
                 json_url="/api/match?" + urlencode(query.as_params(), doseq=True),
+                next_url=_page_url(query, run.next_offset),
+                first_url=_page_url(query, 0),
                 caution=caution_line(
                     {e for m in payload["matches"] for e, f in m["fractions"].items() if f}))
     return request.app.state.templates.TemplateResponse(

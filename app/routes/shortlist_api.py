@@ -19,7 +19,7 @@ from app.exports import cells_zip, csv_zip, shortlist_csv, shortlist_json
 from app.params import QueryError, TableQuery
 from app.queries import table_rows
 from app.shortlist_checks import NAME_LENGTH, NOTE_LENGTH
-from app.text_rules import NAME_RULE, JsonText
+from app.text_rules import NAME_RULE, JsonNumber, JsonText
 from screening.errors import BondgapInputError
 
 router = APIRouter(prefix="/api/shortlists", tags=["shortlists"])
@@ -36,9 +36,10 @@ class ConditionsIn(BaseModel):
     """Conditions as JSON; each field optional."""
 
     substrate: JsonText | None = Field(None, description="Substrate name (built-in or yours)")
-    temperature_K: float | None = Field(None, description="Temperature of the gaps, 0 to 2000 K")
-    target_gap_eV: float | None = Field(None, description="Target band gap, eV (0 to 15)")
-    target_wavelength_nm: float | None = Field(None, description="Target wavelength, nm "
+    temperature_K: JsonNumber | None = Field(None,
+                                             description="Temperature of the gaps, 0 to 2000 K")
+    target_gap_eV: JsonNumber | None = Field(None, description="Target band gap, eV (0 to 15)")
+    target_wavelength_nm: JsonNumber | None = Field(None, description="Target wavelength, nm "
                                                                  "(50 to 100000)")
 
 

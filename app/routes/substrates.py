@@ -21,7 +21,7 @@ from app.substrates import (
     delete_substrate,
     substrate_rows,
 )
-from app.text_rules import JsonText
+from app.text_rules import JsonNumber, JsonText
 from screening.epitaxy import MISMATCH_CONVENTION
 from screening.errors import BondgapInputError
 
@@ -38,9 +38,10 @@ class SubstrateIn(BaseModel):
 
     name: JsonText = Field(description=NAME_RULE)
     structure: JsonText = Field(description=f"One of {', '.join(STRUCTURE_CHOICES)}")
-    a_angstrom: float = Field(description=f"Cubic a or hexagonal in-plane a, {A_RANGE[0]:g} to "
+    a_angstrom: JsonNumber = Field(description=f"Cubic a or hexagonal in-plane a, {A_RANGE[0]:g} "
+                                               f"to "
                                           f"{A_RANGE[1]:g} Å")
-    c_angstrom: float | None = Field(None, description="Hexagonal c, Å (hexagonal only)")
+    c_angstrom: JsonNumber | None = Field(None, description="Hexagonal c, Å (hexagonal only)")
     note: JsonText = Field("", description="One line, at most 200 characters")
 
 

@@ -12,6 +12,7 @@ from screening.alloys.endpoints import endpoint_gaps
 from screening.alloys.finder import find_compositions, select_systems
 from screening.alloys.formula import Alloy, format_alloy, parse_alloy, parse_material
 from screening.alloys.interpolation import COMPOSITION_LAWS, default_bowing
+from screening.alloys.paging import ORDER_KEYS, Page
 from screening.alloys.properties import (
     AlloyProperties,
     EpitaxyResult,
@@ -29,6 +30,7 @@ __all__ = [
     "COMPOSITION_LAWS",
     "JSON_KEYS",
     "MATCH_KINDS",
+    "ORDER_KEYS",
     "Alloy",
     "AlloyMatch",
     "AlloyProperties",
@@ -37,6 +39,7 @@ __all__ = [
     "FinderQuery",
     "FinderResult",
     "GapWindow",
+    "Page",
     "VcaResult",
     "alloy_properties",
     "default_bowing",

@@ -17,7 +17,7 @@ import numpy as np
 from numpy.typing import NDArray
 
 from screening.alloys.model import ZERO_COLUMN, PackedSystems, pack_systems, vegard
-from screening.alloys.systems import AlloySystem
+from screening.alloys.systems import AlloySystem, design_space_systems
 from screening.errors import OutOfRangeError
 
 MIN_STEP = {"ternary": 1e-4, "quaternary": 1e-3}
@@ -84,9 +84,44 @@ class DesignSpace:
         return len(self.system_index)
 
 
-@lru_cache(maxsize=8)
 def design_space(systems: tuple[AlloySystem, ...], ternary_step: float = 0.001,
                  quaternary_step: float = 0.005) -> DesignSpace:
+    """The grid of every system: rows of the cached grid of their families' design space.
+
+    One grid per family set and steps is kept (at most ``_SPACES_KEPT``, about 40 MB each for
+    the III-V and II-VI design space); a subset of its systems (as a query that excludes
+    elements asks for) is selected from it, not built and kept again. Systems outside the
+    design space get a grid of their own.
+
+    Args:
+        systems: The systems.
+        ternary_step: Grid step of ternaries.
+        quaternary_step: Grid step of quaternaries.
+
+    Raises:
+        OutOfRangeError: A step that does not divide 1 or is out of range.
+    """
+    families = tuple(sorted({s.family for s in systems}))
+    full = design_space_systems(families)
+    if not set(systems) <= set(full) or set(systems) == set(full):
+        return _built_space(systems, ternary_step, quaternary_step)
+    whole = _built_space(full, ternary_step, quaternary_step)
+    position = np.full(len(full), -1, dtype=np.intp)
+    position[[full.index(s) for s in systems]] = np.arange(len(systems))
+    index = position[whole.system_index]
+    rows = np.flatnonzero(index >= 0)
+    rows = rows[np.argsort(index[rows], kind="stable")]
+    return DesignSpace(pack_systems(systems), index[rows], whole.fractions[rows],
+                       whole.lattice_constant_angstrom[rows], ternary_step, quaternary_step)
+
+
+_SPACES_KEPT = 2
+"""Design-space grids kept in memory."""
+
+
+@lru_cache(maxsize=_SPACES_KEPT)
+def _built_space(systems: tuple[AlloySystem, ...], ternary_step: float,
+                 quaternary_step: float) -> DesignSpace:
     """Build (and cache) the grid of every system.
 
     Args:

@@ -23,6 +23,8 @@ score 0 and come first.
 
 from __future__ import annotations
 
+from collections.abc import Callable
+
 import numpy as np
 from numpy.typing import NDArray
 
@@ -30,6 +32,7 @@ from screening import epitaxy
 from screening.alloys.bandgap import band_gap, gap_tables, gap_uncertainty
 from screening.alloys.design import DesignSpace, design_space, grid_count
 from screening.alloys.model import vegard
+from screening.alloys.paging import Page, page_rows, value_keys
 from screening.alloys.properties import VALLEY_NAMES, check_lattice
 from screening.alloys.query import ALL_SYSTEMS, FinderQuery, GapWindow
 from screening.alloys.results import MATCH_KINDS, FinderResult
@@ -40,6 +43,7 @@ from screening.alloys.systems import (
     parse_system,
     require_measured_data,
 )
+from screening.constants import HC_EV_NM
 from screening.errors import CompositionError
 
 _SLACK = 1e-12
@@ -47,6 +51,12 @@ _SLACK = 1e-12
 
 _SCORE_DECIMALS = 9
 """Scores are compared to this many decimals, so that round-off does not outrank a tie-break."""
+
+_CHUNK = 65_536
+"""Compositions screened at once (bounds the temporary arrays of one search)."""
+
+_CORE = ("system_index", "fractions", "kind", "lattice_constant_angstrom", "mismatch",
+         "band_gap_eV")
 
 _LATTICE_MATCHED, _TARGET_GAP, _BOTH = (MATCH_KINDS.index(k) for k in MATCH_KINDS[1:])
 
@@ -94,6 +104,11 @@ def _gap_window_distance(gap: NDArray[np.float64], window: GapWindow) -> NDArray
     deviation = np.abs(gap - window.target_eV)
     return np.divide(deviation, scale, out=np.where(deviation > 0.0, np.inf, 0.0),
                      where=scale > 0.0)
+
+
+def _chunks(rows: NDArray[np.intp]) -> list[NDArray[np.intp]]:
+    """`rows` in slices of at most ``_CHUNK`` (one empty slice for no rows)."""
+    return [rows[a:a + _CHUNK] for a in range(0, max(len(rows), 1), _CHUNK)]
 
 
 class _Search:
@@ -154,41 +169,81 @@ class _Search:
         limit = self.query.max_mismatch + _SLACK
         return (low <= limit) & (high >= -limit)
 
-    def screen(self, system_index: NDArray[np.intp], fractions: NDArray[np.float64],
-               kind: NDArray[np.intp], lattice: NDArray[np.float64]) -> dict[str, NDArray]:
-        """Apply every limit to a set of compositions; return the survivors' columns."""
+    def poisson(self, system_index: NDArray[np.intp], fractions: NDArray[np.float64]
+                ) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
+        """(001) Poisson ratio of each composition, and whether the default was assumed."""
+        c11 = vegard(self.packed, system_index, fractions, self.packed.c11_GPa)
+        c12 = vegard(self.packed, system_index, fractions, self.packed.c12_GPa)
+        return epitaxy.poisson_ratio_001(c11, c12)
+
+    def screen(self, sources: list[tuple[NDArray[np.intp], NDArray[np.float64], NDArray[np.intp],
+                                         NDArray[np.float64]]]) -> dict[str, NDArray]:
+        """Apply every limit to sets of compositions; the survivors' core columns.
+
+        Each source is (system index, fractions, kind, lattice constant). The compositions are
+        screened in slices of ``_CHUNK``, and the survivors' columns joined one at a time, so
+        that the temporary arrays stay small whatever the size of the design space.
+        """
+        parts = [self._screen(*(column[rows] for column in source))
+                 for source in sources for rows in _chunks(np.arange(len(source[0])))]
+        return {name: np.concatenate([part.pop(name) for part in parts])
+                for name in list(parts[0])}
+
+    def _screen(self, system_index: NDArray[np.intp], fractions: NDArray[np.float64],
+                kind: NDArray[np.intp], lattice: NDArray[np.float64]) -> dict[str, NDArray]:
         query = self.query
         mismatch = lattice / self.a_sub - 1.0
-        keep = np.ones(len(system_index), dtype=bool)
+        rows = np.arange(len(system_index))
         if query.max_mismatch is not None:
-            keep &= np.abs(mismatch) <= query.max_mismatch + _SLACK
-        rows = np.flatnonzero(keep)
+            rows = np.flatnonzero(np.abs(mismatch) <= query.max_mismatch + _SLACK)
         gap, channel = self.gap(system_index[rows], fractions[rows])
         if query.gap is not None:
             inside = ((gap >= query.gap.low_eV - _SLACK) & (gap <= query.gap.high_eV + _SLACK))
             rows, gap, channel = rows[inside], gap[inside], channel[inside]
-        sys_rows, frac_rows, lattice_rows = system_index[rows], fractions[rows], lattice[rows]
-        c11 = vegard(self.packed, sys_rows, frac_rows, self.packed.c11_GPa)
-        c12 = vegard(self.packed, sys_rows, frac_rows, self.packed.c12_GPa)
-        poisson, assumed = epitaxy.poisson_ratio_001(c11, c12)
-        applies = self.zincblende[sys_rows]
         if query.layer_thickness_nm is not None:  # h < h_c exactly when |eps| < eps_c(h)
-            strain = epitaxy.in_plane_strain(lattice_rows, self.a_sub)
+            a_rows = lattice[rows]
+            poisson, _ = self.poisson(system_index[rows], fractions[rows])
             limit = epitaxy.critical_strain(
                 query.layer_thickness_nm * epitaxy.ANGSTROM_PER_NM,
-                epitaxy.burgers_vector_60(lattice_rows), poisson, query.geometry)
-            below = applies & (np.abs(strain) < limit)
-            rows, gap, channel, poisson, assumed = (
-                rows[below], gap[below], channel[below], poisson[below], assumed[below])
-            sys_rows, frac_rows, applies = sys_rows[below], frac_rows[below], applies[below]
-        uncertainty, default = gap_uncertainty(self.packed, self.tables, sys_rows, frac_rows,
-                                               channel)
-        return {"system_index": sys_rows, "fractions": frac_rows, "kind": kind[rows],
-                "lattice_constant_angstrom": lattice[rows], "mismatch": mismatch[rows],
-                "band_gap_eV": gap, "band_gap_uncertainty_eV": uncertainty,
-                "valley": VALLEY_NAMES[channel], "default_bowing": default,
+                epitaxy.burgers_vector_60(a_rows), poisson, query.geometry)
+            below = (self.zincblende[system_index[rows]]
+                     & (np.abs(epitaxy.in_plane_strain(a_rows, self.a_sub)) < limit))
+            rows, gap, channel = rows[below], gap[below], channel[below]
+        return {"system_index": system_index[rows], "fractions": fractions[rows],
+                "kind": kind[rows], "lattice_constant_angstrom": lattice[rows],
+                "mismatch": mismatch[rows], "band_gap_eV": gap, "channel": channel}
+
+    def uncertainty(self, columns: dict[str, NDArray], rows: NDArray[np.intp]
+                    ) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
+        """Gap uncertainty (eV) of some survivors, and whether a default bowing entered it."""
+        parts = [gap_uncertainty(self.packed, self.tables, columns["system_index"][chunk],
+                                 columns["fractions"][chunk], columns["channel"][chunk])
+                 for chunk in _chunks(rows)]
+        return (np.concatenate([p[0] for p in parts]), np.concatenate([p[1] for p in parts]))
+
+    def details(self, columns: dict[str, NDArray], rows: NDArray[np.intp]
+                ) -> dict[str, NDArray]:
+        """Every column of a page of survivors (the costly ones computed for those rows only)."""
+        page = {name: columns[name][rows] for name in _CORE}
+        uncertainty, default = self.uncertainty(columns, rows)
+        poisson, assumed = self.poisson(page["system_index"], page["fractions"])
+        return {**page, "band_gap_uncertainty_eV": uncertainty,
+                "valley": VALLEY_NAMES[columns["channel"][rows]], "default_bowing": default,
                 "poisson_ratio": poisson, "poisson_assumed": assumed,
-                "critical_thickness_applies": applies}
+                "critical_thickness_applies": self.zincblende[page["system_index"]],
+                "score": columns["score"][rows]}
+
+    def critical_thickness(self, columns: dict[str, NDArray], rows: NDArray[np.intp]
+                           ) -> NDArray[np.float64]:
+        """Matthews-Blakeslee h_c (nm) of some survivors (NaN where it does not apply)."""
+        parts = []
+        for chunk in _chunks(rows):
+            system_index = columns["system_index"][chunk]
+            poisson, _ = self.poisson(system_index, columns["fractions"][chunk])
+            h_c = epitaxy.critical_thickness_nm(columns["lattice_constant_angstrom"][chunk],
+                                                self.a_sub, poisson, self.query.geometry)
+            parts.append(np.where(self.zincblende[system_index], h_c, np.nan))
+        return np.concatenate(parts)
 
 
 def _composition_keys(packed_systems: tuple[AlloySystem, ...], system_index: NDArray[np.intp],
@@ -222,34 +277,64 @@ def _deduplicated(columns: dict[str, NDArray], systems: tuple[AlloySystem, ...]
     return order[first]
 
 
-def _rank(columns: dict[str, NDArray], query: FinderQuery, systems: tuple[AlloySystem, ...]
-          ) -> dict[str, NDArray]:
-    """Drop duplicate compositions (exact roots win) and sort best first."""
-    keep = _deduplicated(columns, systems)
-    columns = {name: values[keep] for name, values in columns.items()}
-    gap_term = (np.zeros(len(keep)) if query.gap is None
-                else _gap_window_distance(columns["band_gap_eV"], query.gap))
-    score = np.hypot(gap_term, np.abs(columns["mismatch"]) / query.mismatch_scale)
-    order = np.lexsort((columns["band_gap_uncertainty_eV"], np.round(score, _SCORE_DECIMALS)))
-    columns["score"] = score
-    return {name: values[order] for name, values in columns.items()}
+def _order_keys(columns: dict[str, NDArray], keep: NDArray[np.intp], score: NDArray[np.float64],
+                search: _Search, page: Page) -> list[NDArray]:
+    """Sort keys of the kept rows in the asked order, primary first, ending with the score."""
+    key = page.order
+    if key == "rank":
+        return [score]
+    if key == "formula":  # by system name, then by the fractions in element order
+        systems = search.packed.systems
+        names = np.argsort(np.argsort([s.name for s in systems]))[columns["system_index"][keep]]
+        keys = [names, *columns["fractions"][keep].T]
+        return [*(-k if page.descending else k for k in keys), score]
+    if key == "band_gap_uncertainty_eV":
+        values = search.uncertainty(columns, keep)[0]
+    elif key == "critical_thickness_nm":
+        values = search.critical_thickness(columns, keep)
+    elif key == "abs_mismatch":
+        values = np.abs(columns["mismatch"][keep])
+    elif key == "wavelength_nm":
+        gap = columns["band_gap_eV"][keep]
+        values = np.where(gap > 0, HC_EV_NM / np.where(gap > 0, gap, 1.0), np.nan)
+    else:
+        values = columns[key][keep]
+    return [*value_keys(values, page.descending), score]
 
 
-def find_compositions(query: FinderQuery) -> FinderResult:
-    """Every composition that meets the query, ranked best first.
+def _systems_by_best_match(system_index: NDArray[np.intp], score: NDArray[np.float64],
+                           tie_break: Callable[[NDArray[np.intp]], NDArray]) -> tuple[int, ...]:
+    """Indices of the systems with matches, ordered by their best-ranked match."""
+    best = np.full(int(system_index.max(initial=-1)) + 1, np.inf)
+    np.minimum.at(best, system_index, score)
+    tied = np.flatnonzero(score == best[system_index])
+    order = tied[np.lexsort((tie_break(tied), score[tied]))]
+    _, first = np.unique(system_index[order], return_index=True)
+    return tuple(int(s) for s in system_index[order][np.sort(first)])
+
+
+def find_compositions(query: FinderQuery, page: Page | None = None) -> FinderResult:
+    """The matches of a query: every one ranked best first, or one page in an asked order.
+
+    Every composition of the design space is screened either way (the count of matches needs
+    it); the costly columns (gap uncertainty, Poisson ratio, critical thickness) are computed
+    for the page's rows only, unless the order asks for one of them.
 
     Args:
         query: The search (system, substrate, gap window, limits, exclusions, grid steps).
+        page: Order and slice of the matches returned (default: all, ranked best first).
 
     Returns:
-        The ranked matches; an empty result when nothing meets the query.
+        The matches asked for; an empty result when nothing meets the query.
 
     Raises:
         BondgapInputError: A subclass naming what is wrong with the query (out-of-range number,
-            unknown element or geometry, unreadable system, a named system without data or of
-            the other lattice kind than the substrate).
+            unknown element, geometry or order, unreadable system, a named system without data
+            or of the other lattice kind than the substrate).
     """
     query.validate()
+    page = page or Page()
+    page.validate()
     systems, skipped = select_systems(query)
     grid_count(query.ternary_step, "ternary")
     grid_count(query.quaternary_step, "quaternary")
@@ -260,10 +345,26 @@ def find_compositions(query: FinderQuery) -> FinderResult:
     search = _Search(query, space)
     root_sys, root_frac, root_kind = search.roots()
     root_lattice = vegard(space.packed, root_sys, root_frac, space.packed.lattice_a_angstrom)
-    parts = [search.screen(root_sys, root_frac, root_kind, root_lattice),
-             search.screen(space.system_index, space.fractions,
-                           np.zeros(space.size, dtype=np.intp), space.lattice_constant_angstrom)]
-    columns = {name: np.concatenate([part[name] for part in parts]) for name in parts[0]}
-    ranked = _rank(columns, query, systems)
+    columns = search.screen([
+        (root_sys, root_frac, root_kind, root_lattice),
+        (space.system_index, space.fractions, np.zeros(space.size, dtype=np.intp),
+         space.lattice_constant_angstrom)])
+    keep = _deduplicated(columns, systems)
+    gap_term = (np.zeros(len(keep)) if query.gap is None
+                else _gap_window_distance(columns["band_gap_eV"][keep], query.gap))
+    columns["score"] = np.zeros(len(columns["mismatch"]))
+    columns["score"][keep] = np.hypot(gap_term, np.abs(columns["mismatch"][keep])
+                                      / query.mismatch_scale)
+    score = np.round(columns["score"][keep], _SCORE_DECIMALS)
+
+    def tie_break(rows: NDArray[np.intp]) -> NDArray[np.float64]:
+        return search.uncertainty(columns, keep[rows])[0]
+
+    rows = keep[page_rows(_order_keys(columns, keep, score, search, page), tie_break,
+                          page.offset, page.stop(len(keep)))]
     return FinderResult(query=query, systems=systems, skipped=skipped,
-                        points_screened=space.size + len(root_sys), geometry=geometry, **ranked)
+                        points_screened=space.size + len(root_sys), geometry=geometry,
+                        total=len(keep), offset=page.offset,
+                        systems_by_rank=_systems_by_best_match(columns["system_index"][keep],
+                                                               score, tie_break),
+                        **search.details(columns, rows))

@@ -13,8 +13,9 @@ from dataclasses import dataclass
 from screening.alloys.systems import ALLOY_FAMILIES
 from screening.constants import HC_EV_NM
 from screening.elements import atomic_number
-from screening.epitaxy import SubstrateSpec, misfit_geometry
+from screening.epitaxy import LATTICE_RANGE_ANGSTROM, SubstrateSpec, misfit_geometry
 from screening.errors import OutOfRangeError, UnknownChoiceError
+from screening.report import MAX_TEMPERATURE_K
 
 LATTICE_KINDS = ("cubic", "hexagonal")
 """Lattice kinds a substrate can have."""
@@ -122,6 +123,9 @@ class FinderQuery:
             UnknownChoiceError: An unknown geometry.
         """
         _finite("temperature (K)", self.temperature_K, 0.0)
+        if self.temperature_K > MAX_TEMPERATURE_K:
+            raise OutOfRangeError(f"temperature {self.temperature_K:g} K: give 0 to "
+                                  f"{MAX_TEMPERATURE_K:g} K (the gap laws are fitted up to there)")
         if self.substrate.lattice not in LATTICE_KINDS:
             raise UnknownChoiceError(
                 f"substrate lattice {self.substrate.lattice!r}: choose one of "
@@ -129,6 +133,11 @@ class FinderQuery:
             )
         _finite("substrate lattice constant (A)", self.substrate.lattice_a_angstrom, 0.0,
                 inclusive=False)
+        low, high = LATTICE_RANGE_ANGSTROM
+        if not low <= self.substrate.lattice_a_angstrom <= high:
+            raise OutOfRangeError(f"substrate lattice constant "
+                                  f"{self.substrate.lattice_a_angstrom:g} A: give {low:g} to "
+                                  f"{high:g} A")
         if self.max_mismatch is not None:
             _finite("mismatch limit", self.max_mismatch, 0.0)
         if self.layer_thickness_nm is not None:

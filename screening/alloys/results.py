@@ -88,7 +88,7 @@ class AlloyMatch:
 
 @dataclass(frozen=True, eq=False)
 class FinderResult:
-    """Every match of a query, ranked best first (arrays over matches).
+    """The matches of a query asked for: every one ranked best first, or one page of them.
 
     Attributes:
         query: The query.
@@ -105,6 +105,10 @@ class FinderResult:
         critical_thickness_applies: (nmatch,) True for zincblende layers, where the (001)
             60 degree Matthews-Blakeslee geometry holds.
         geometry: The Matthews-Blakeslee geometry used.
+        total: How many compositions match (None: as many as held, no page was asked).
+        offset: Position of the first match held among all matches in the asked order.
+        systems_by_rank: Indices into ``systems`` of the systems with matches, ordered by
+            their best-ranked match (empty when not computed).
     """
 
     query: FinderQuery
@@ -126,9 +130,17 @@ class FinderResult:
     score: NDArray[np.float64]
     geometry: MisfitGeometry
     mismatch_convention: str = MISMATCH_CONVENTION
+    total: int | None = None
+    offset: int = 0
+    systems_by_rank: tuple[int, ...] = ()
 
     def __len__(self) -> int:
         return len(self.system_index)
+
+    @property
+    def match_count(self) -> int:
+        """How many compositions match the query (held here or not)."""
+        return len(self) if self.total is None else self.total
 
     @classmethod
     def empty(cls, query: FinderQuery, skipped: tuple[tuple[str, str], ...],
@@ -142,7 +154,7 @@ class FinderResult:
                    mismatch=none, band_gap_eV=none, band_gap_uncertainty_eV=none,
                    valley=np.zeros(0, dtype=str), default_bowing=flags, poisson_ratio=none,
                    poisson_assumed=flags, critical_thickness_applies=flags, score=none,
-                   geometry=geometry)
+                   geometry=geometry, total=0)
 
     def critical_thickness_of(self, rows: slice | NDArray[np.intp]) -> NDArray[np.float64]:
         """Matthews-Blakeslee h_c (nm) of some matches: inf matched, NaN not applicable."""

@@ -145,7 +145,8 @@ def _param_values(name: str) -> st.SearchStrategy[str]:
                "tolerance": (0.0, 0.2), "temperature": (0.0, 2000.0),
                "max_mismatch": (0.0, 0.02), "thickness": (1.0, 1000.0)}
     for key, (low, high) in numbers.items():
-        plausible[key] = st.floats(low, high).filter(lambda v: not 0 < v < 1e-300).map(str)
+        plausible[key] = st.one_of(st.floats(low, high), st.floats(0.0, 1e-300).filter(
+            lambda v, low=low: v >= low)).map(str)
     return mostly(plausible.get(name, number_texts()), st.one_of(number_texts(), formula_texts()))
 
 

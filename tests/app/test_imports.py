@@ -47,7 +47,7 @@ def test_good_file_is_stored_in_canonical_units(client, db_path: Path) -> None:
         ("formula,value,unit\nGaAs,1.4,eV\n", 400, "line 1 (header): missing column(s) "
          "property, source"),
         (HEADER + "GaAs,band_gap,1.4,eV,a\nInP,band_gap,abc,eV,b\n", 400,
-         "line 3, column value: 'abc' is not a number"),
+         "line 3, column value: a band_gap value must be a number of eV from -1 to 15, not 'abc'"),
         (HEADER + "GaAs,band_gap,1.4,eV,a\nUnobtainium,band_gap,1.4,eV,b\n", 400,
          "line 3, column formula: 'Unobtainium'"),
         (HEADER + "GaAs,band_gap,1.4,eV,a\nNaAs,band_gap,1.4,eV,b\n", 400,
@@ -56,8 +56,10 @@ def test_good_file_is_stored_in_canonical_units(client, db_path: Path) -> None:
          "line 3, column property: GaAs band_gap is given twice (first on line 2)"),
         (HEADER + "GaAs,density,5.3,g/cm3,a\n", 400, "line 2, column property: unknown"),
         (HEADER + "GaAs,band_gap,1.4,K,a\n", 400, "line 2, column unit: unit 'K'"),
-        (HEADER + "GaAs,lattice_a,565,angstrom,a\n", 400, "outside the plausible range"),
-        (HEADER + "GaAs,band_gap,nan,eV,a\n", 400, "'nan' is not a number"),
+        (HEADER + "GaAs,lattice_a,565,angstrom,a\n", 400,
+         "a lattice_a value must be a number of angstrom from 1 to 20, not '565'"),
+        (HEADER + "GaAs,band_gap,nan,eV,a\n", 400,
+         "must be a number of eV from -1 to 15, not 'nan'"),
         (HEADER + "GaAs,band_gap,1.4,eV,\n", 400, "line 2, column source"),
         (HEADER + "GaAs,band_gap,1.4\n", 400, "line 2, column unit"),
         (HEADER, 400, "no value rows"),
@@ -123,3 +125,28 @@ def test_template_and_batch_delete(client, db_path) -> None:
     assert done.json() == {"deleted": 4} and stored(db_path) == []
     assert client.delete(f"/api/measurements/batches/{batch}",
                          params={"confirm": "yes"}).status_code == 404
+
+
+@pytest.mark.parametrize("source", ["PL \u202e2024", "PL\u20282024", "PL\u00852024",
+                                    "PL\u007f2024", "PL\u200b2024"])
+def test_sources_follow_the_text_rules_of_the_forms(client, db_path, source: str) -> None:
+    # Issue 10, defect 5: these were stored as typed.
+    response = post(client, HEADER + f"GaAs,band_gap,1.42,eV,{source}\n")
+    assert response.status_code == 400, response.text
+    assert "column source" in response.json()["detail"]
+    assert stored(db_path) == []
+
+
+def test_sources_are_stored_nfc(client, db_path) -> None:
+    decomposed = "Mu\u0308ller lab"  # u + combining diaeresis
+    assert post(client, HEADER + f"GaAs,band_gap,1.42,eV,{decomposed}\n").status_code == 201
+    assert [row[-1] for row in stored(db_path)] == ["M\u00fcller lab"]
+
+
+@pytest.mark.parametrize("value", ["1_4", "\uff11.4", "1.4\u200b", "0x1", "inf", "true"])
+def test_values_are_plain_decimal_numbers_only(client, db_path, value: str) -> None:
+    # Issue 10, defect 5: `1_4` was stored as 14.0.
+    response = post(client, HEADER + f"GaAs,band_gap,{value},eV,PL\n")
+    assert response.status_code == 400, response.text
+    assert "must be a number of eV from -1 to 15" in response.json()["detail"]
+    assert stored(db_path) == []

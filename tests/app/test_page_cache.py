@@ -25,3 +25,37 @@ def test_cache_keeps_only_plain_answers(tmp_path: Path) -> None:
     assert cache._key(scope) == cache._key(scope)
     other = dict(scope, query_string=b"a=2")
     assert cache._key(scope) != cache._key(other)
+
+
+def test_cache_is_bounded_in_bytes(tmp_path: Path, monkeypatch) -> None:
+    # Issue 10 defect 4: 256 distinct cached answers of 2 MB held 0.6 GB. Many large distinct
+    # answers must stay within the byte bound, the most recent ones kept.
+    import asyncio
+
+    from app import page_cache
+
+    body = b"x" * page_cache.MAX_BODY_BYTES
+
+    async def app(scope, receive, send) -> None:
+        await send({"type": "http.response.start", "status": 200,
+                    "headers": [(b"content-type", b"application/json")]})
+        await send({"type": "http.response.body", "body": body})
+
+    cache = PageCache(app=app, db_path=tmp_path / "none.db")
+
+    async def noop(message) -> None:
+        return None
+
+    async def burst() -> None:
+        for i in range(page_cache.MAX_ENTRIES):
+            scope = {"type": "http", "method": "GET", "path": "/api/match",
+                     "query_string": f"offset={i}".encode(), "headers": []}
+            await cache(scope, None, noop)
+
+    asyncio.run(burst())
+    assert cache.bytes_kept <= page_cache.MAX_TOTAL_BYTES
+    assert sum(len(e[2]) for e in cache.entries.values()) <= page_cache.MAX_TOTAL_BYTES
+    entry_bytes = page_cache._size(next(iter(cache.entries.values())))
+    assert len(cache.entries) == page_cache.MAX_TOTAL_BYTES // entry_bytes
+    newest = (b"offset=%d" % (page_cache.MAX_ENTRIES - 1))
+    assert any(key[1] == newest for key in cache.entries)

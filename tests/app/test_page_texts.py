@@ -57,7 +57,8 @@ def test_finder_speaks_percent_once(client) -> None:
 
 
 @pytest.mark.parametrize(
-    ("value", "problem"), [("150", "percent from 0 to 100"), ("abc", "percent from 0 to 100")]
+    ("value", "problem"),
+    [(v, "percent from 0 to 100") for v in ("150", "abc", "1_0", "\uff11", "nan", "-1")],
 )
 def test_finder_refuses_a_bad_percent(client, value, problem) -> None:
     answer = client.get(

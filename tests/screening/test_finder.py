@@ -9,6 +9,7 @@ from screening.alloys import (
     JSON_KEYS,
     FinderQuery,
     GapWindow,
+    Page,
     alloy_properties,
     find_compositions,
     parse_alloy,
@@ -243,3 +244,32 @@ def test_finder_pulls_in_no_web_or_database_module() -> None:
     )
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
     assert json.loads(out.stdout) == []
+
+
+@pytest.mark.parametrize("order", ["rank", "formula", "mismatch", "band_gap_eV",
+                                   "band_gap_uncertainty_eV", "critical_thickness_nm"])
+@pytest.mark.parametrize("descending", [False, True])
+def test_a_page_is_the_slice_of_the_whole_order(order: str, descending: bool) -> None:
+    # Issue 10, defect 4: pages are computed without ordering every match in full; each must
+    # equal the same slice of the full order (ties included).
+    query = FinderQuery(substrate=substrate_spec("InP"), system="all",
+                        gap=GapWindow.from_gap(1.0, 0.05))
+    whole = find_compositions(query, Page(order=order, descending=descending, limit=100_000))
+    keys = [(m.formula, m.kind) for m in whole.matches()]
+    for offset, limit in [(0, 7), (3, 50), (len(keys) - 5, 20)]:
+        page = find_compositions(query, Page(order=order, descending=descending,
+                                             offset=offset, limit=limit))
+        assert page.match_count == whole.match_count == len(keys)
+        assert [(m.formula, m.kind) for m in page.matches()] == keys[offset:offset + limit]
+
+
+def test_temperature_and_substrate_beyond_their_ranges_are_refused() -> None:
+    # Issue 10: the finder overflowed at 1e250 K, and for extreme lattice constants.
+    with pytest.raises(OutOfRangeError, match="0 to 2000 K"):
+        find_compositions(FinderQuery(substrate=substrate_spec("InP"), temperature_K=1e250))
+    for a in (5e-324, 1e-300, 1e300, 1.7e308):
+        with pytest.raises(OutOfRangeError, match="1 to 100 A"):
+            find_compositions(FinderQuery(substrate=SubstrateSpec("x", "cubic", a)))
+    tiny = find_compositions(FinderQuery(substrate=substrate_spec("InP"), system="InGaAs",
+                                         temperature_K=5e-324), Page(limit=3))
+    assert tiny.match_count > 0

@@ -262,10 +262,11 @@ def _substrates(clean: bool) -> st.SearchStrategy[SubstrateSpec | str]:
         SubstrateSpec, name=st.just("yours"),
         lattice=pick(clean, st.sampled_from(("cubic", "hexagonal")), st.sampled_from(
             ("cubicle", ""))),
-        # Finite extremes (a = 1e-300 A) are not drawn: numpy warns of an overflow there; the
-        # app keeps a user's a within 2 to 10 A (reported with issue 7).
-        lattice_a_angstrom=pick(clean, st.floats(2.0, 10.0), st.sampled_from(
-            (0.0, -5.65, math.nan, math.inf, -math.inf))))
+        # Finite extremes (a = 5e-324 or 1e308 A) too: the engine answers them without a
+        # numpy warning (the app keeps a user's a within 2 to 10 A).
+        lattice_a_angstrom=pick(clean, st.floats(2.0, 10.0), st.one_of(st.sampled_from(
+            (0.0, -5.65, math.nan, math.inf, -math.inf, 5e-324, 1e-300, 1e300, 1.7e308)),
+            st.floats(min_value=0.0, exclude_min=True, allow_infinity=False))))
     return st.one_of(built_in, own)
 
 

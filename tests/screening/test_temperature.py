@@ -253,3 +253,17 @@ def test_malformed_tables_are_rejected(tmp_path: Path, rows: list[str], header: 
 def test_missing_table_is_reported(tmp_path: Path) -> None:
     with pytest.raises(SeedDataError):
         load_varshni_table(tmp_path)
+
+
+@pytest.mark.parametrize("temperature_K", [5e-324, 1e-320, 1e-310, 1e-300])
+def test_tiny_positive_temperatures_give_the_0_k_gap_without_warnings(temperature_K) -> None:
+    # Issue 10: theta / T overflowed for GaP near 1e-310 K. 1 - coth(theta / T) is below
+    # exp(-700) there, so the gap is E(0) to double precision (the limit of the formula).
+    gap = bose_einstein_eV(2.886, 0.0862, 305.0, temperature_K)
+    assert float(gap) == 2.886
+    assert float(varshni_eV(1.519, 0.5405, 204.0, temperature_K)) == pytest.approx(1.519)
+
+
+def test_huge_temperatures_give_finite_varshni_values() -> None:
+    # T^2 overflowed above 1e154 K; T * (T / (T + beta)) does not (arithmetic check).
+    assert float(varshni_eV(1.0, 1.0, 100.0, 1e250)) == pytest.approx(-1e-3 * 1e250, rel=1e-12)
