@@ -34,7 +34,7 @@ from app.export_values import (
     wavelength,
     yours,
 )
-from app.numbers import THICKNESS_ABOVE, THICKNESS_BOUND_NM
+from app.numbers import THICKNESS_ABOVE, THICKNESS_BOUND_NM, THICKNESS_MATCHED, THICKNESS_NONE
 
 
 @dataclass(frozen=True)
@@ -176,8 +176,9 @@ CSV_COLUMNS: tuple[CsvColumn, ...] = (
     CsvColumn(
         "critical_thickness",
         thickness_shown,
-        f"critical thickness as the pages show it: '∞' for a lattice-matched layer, "
-        f"'{THICKNESS_ABOVE}' above {THICKNESS_BOUND_NM:g} nm, else the value in nm",
+        f"critical thickness as the pages show it: '{THICKNESS_MATCHED}' for a lattice-matched "
+        f"layer, '{THICKNESS_ABOVE}' above {THICKNESS_BOUND_NM:g} nm, '{THICKNESS_NONE}' when "
+        "no coherent layer is thicker than one Burgers vector, else the value in nm",
     ),
     CsvColumn(
         "critical_thickness_nm",

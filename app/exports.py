@@ -30,7 +30,7 @@ import screening
 from app.candidates import Candidate
 from app.conditions import Conditions
 from app.export_columns import CSV_COLUMNS
-from app.numbers import THICKNESS_ABOVE, THICKNESS_MATCHED
+from app.numbers import THICKNESS_ABOVE, THICKNESS_MATCHED, THICKNESS_NONE
 from screening.epitaxy import MISMATCH_CONVENTION
 from screening.hazards import CAUTION, ROHS_SOURCE
 
@@ -60,8 +60,9 @@ PRECISION_LEGEND = (
     "decimal place; Particle Data Group rule, after JCGM 100:2008 section 7.2.6); measured "
     "values as published; Vegard and virtual-crystal averages to their end points' decimals; "
     "ionicity and polarity to 3 decimals, bond length to 4, mismatch and strain to 5; "
-    f"critical thickness to 3 significant digits, '{THICKNESS_MATCHED}' when lattice-matched "
-    f"and '{THICKNESS_ABOVE}' above 10 µm; the JSON export has every number at full precision"
+    f"critical thickness to 3 significant digits, '{THICKNESS_MATCHED}' when lattice-matched"
+    f", '{THICKNESS_ABOVE}' above 10 µm and '{THICKNESS_NONE}' when no coherent layer is "
+    "thicker than one Burgers vector; the JSON export has every number at full precision"
 )
 
 
