@@ -30,7 +30,7 @@ from numpy.typing import NDArray
 
 from screening import epitaxy
 from screening.alloys.bandgap import band_gap, gap_tables, gap_uncertainty
-from screening.alloys.design import DesignSpace, design_space, grid_count
+from screening.alloys.design import DesignSpace, composition_keys, design_space, grid_count
 from screening.alloys.model import vegard
 from screening.alloys.paging import Page, page_rows, value_keys
 from screening.alloys.properties import VALLEY_NAMES, check_lattice
@@ -177,10 +177,12 @@ class _Search:
         return epitaxy.poisson_ratio_001(c11, c12)
 
     def screen(self, sources: list[tuple[NDArray[np.intp], NDArray[np.float64], NDArray[np.intp],
-                                         NDArray[np.float64]]]) -> dict[str, NDArray]:
+                                         NDArray[np.float64], NDArray[np.intp]]]
+               ) -> dict[str, NDArray]:
         """Apply every limit to sets of compositions; the survivors' core columns.
 
-        Each source is (system index, fractions, kind, lattice constant). The compositions are
+        Each source is (system index, fractions, kind, lattice constant, origin: the row of
+        the design space, -1 for an exact root). The compositions are
         screened in slices of ``_CHUNK``, and the survivors' columns joined one at a time, so
         that the temporary arrays stay small whatever the size of the design space.
         """
@@ -190,7 +192,8 @@ class _Search:
                 for name in list(parts[0])}
 
     def _screen(self, system_index: NDArray[np.intp], fractions: NDArray[np.float64],
-                kind: NDArray[np.intp], lattice: NDArray[np.float64]) -> dict[str, NDArray]:
+                kind: NDArray[np.intp], lattice: NDArray[np.float64], origin: NDArray[np.intp]
+                ) -> dict[str, NDArray]:
         query = self.query
         mismatch = lattice / self.a_sub - 1.0
         rows = np.arange(len(system_index))
@@ -211,7 +214,8 @@ class _Search:
             rows, gap, channel = rows[below], gap[below], channel[below]
         return {"system_index": system_index[rows], "fractions": fractions[rows],
                 "kind": kind[rows], "lattice_constant_angstrom": lattice[rows],
-                "mismatch": mismatch[rows], "band_gap_eV": gap, "channel": channel}
+                "mismatch": mismatch[rows], "band_gap_eV": gap, "channel": channel,
+                "origin": origin[rows]}
 
     def uncertainty(self, columns: dict[str, NDArray], rows: NDArray[np.intp]
                     ) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
@@ -246,35 +250,41 @@ class _Search:
         return np.concatenate(parts)
 
 
-def _composition_keys(packed_systems: tuple[AlloySystem, ...], system_index: NDArray[np.intp],
-                      fractions: NDArray[np.float64]) -> NDArray[np.uint64]:
-    """A hash of each composition that ignores which system it was reached through.
+def _deduplicated(columns: dict[str, NDArray], space: DesignSpace) -> NDArray[np.intp]:
+    """Rows to keep, one per composition: the smallest system's, exact roots before grid.
 
-    Each element gets a fixed pseudo-random 64-bit multiplier; the key is the sum over the
-    elements of multiplier * round(fraction * 2^30) (wrapping), so In0.5Ga0.5As from InGaAs
-    and from AlInGaAs (Al = 0) get the same key.
+    Returned in the order of the composition keys. The grid rows come ordered by key (and by
+    preference among equal keys) with the design space; only the keys that an exact root
+    shares are decided here, among the few rows that carry them.
     """
-    elements = sorted({e for s in packed_systems for e in s.elements})
-    multipliers = np.random.default_rng(0).integers(
-        1, 2**63, size=len(elements) + 1, dtype=np.uint64)
-    position = {e: i for i, e in enumerate(elements)}
-    width = fractions.shape[1]
-    table = np.full((len(packed_systems), width), len(elements), dtype=np.intp)
-    for s, system in enumerate(packed_systems):  # loop over systems
-        table[s, : len(system.elements)] = [position[e] for e in system.elements]
-    steps = np.rint(fractions * 2.0**30).astype(np.uint64)
-    with np.errstate(over="ignore"):
-        return (multipliers[table[system_index]] * steps).sum(axis=1, dtype=np.uint64)
-
-
-def _deduplicated(columns: dict[str, NDArray], systems: tuple[AlloySystem, ...]
-                  ) -> NDArray[np.intp]:
-    """Rows to keep, one per composition: the smallest system's, exact roots before grid."""
-    n_elements = np.array([len(s.elements) for s in systems])[columns["system_index"]]
-    order = np.lexsort((-columns["kind"], n_elements))
-    keys = _composition_keys(systems, columns["system_index"], columns["fractions"])
-    _, first = np.unique(keys[order], return_index=True)
-    return order[first]
+    origin = columns["origin"]
+    n_roots = int(np.count_nonzero(origin < 0))  # the roots come first
+    column_of = np.full(space.size, -1, dtype=np.intp)
+    column_of[origin[n_roots:]] = np.arange(n_roots, len(origin))
+    grid = column_of[space.key_order]
+    grid = grid[grid >= 0]  # surviving grid rows, by key, preferred first among equal keys
+    keys = space.composition_key[origin[grid]]
+    first = np.ones(len(grid), dtype=bool)
+    first[1:] = keys[1:] != keys[:-1]
+    kept, kept_keys = grid[first], keys[first]
+    if not n_roots:
+        return kept
+    systems = space.packed.systems
+    root_keys = np.unique(composition_keys(systems, columns["system_index"][:n_roots],
+                                           columns["fractions"][:n_roots], space.key_systems))
+    low = np.searchsorted(keys, root_keys, side="left")
+    high = np.searchsorted(keys, root_keys, side="right")
+    counts = high - low  # the grid rows that share each root's key: low .. high - 1
+    shared = np.arange(counts.sum()) + np.repeat(low - (np.cumsum(counts) - counts), counts)
+    rows = np.concatenate([np.arange(n_roots), np.sort(grid[shared])])
+    n_elements = np.array([len(s.elements) for s in systems])[columns["system_index"][rows]]
+    order = np.lexsort((-columns["kind"][rows], n_elements))
+    row_keys = composition_keys(systems, columns["system_index"][rows],
+                                columns["fractions"][rows], space.key_systems)
+    unique_keys, best = np.unique(row_keys[order], return_index=True)
+    free = ~np.isin(kept_keys, root_keys)
+    kept, kept_keys = kept[free], kept_keys[free]
+    return np.insert(kept, np.searchsorted(kept_keys, unique_keys), rows[order[best]])
 
 
 def _order_keys(columns: dict[str, NDArray], keep: NDArray[np.intp], score: NDArray[np.float64],
@@ -346,10 +356,10 @@ def find_compositions(query: FinderQuery, page: Page | None = None) -> FinderRes
     root_sys, root_frac, root_kind = search.roots()
     root_lattice = vegard(space.packed, root_sys, root_frac, space.packed.lattice_a_angstrom)
     columns = search.screen([
-        (root_sys, root_frac, root_kind, root_lattice),
+        (root_sys, root_frac, root_kind, root_lattice, np.full(len(root_sys), -1)),
         (space.system_index, space.fractions, np.zeros(space.size, dtype=np.intp),
-         space.lattice_constant_angstrom)])
-    keep = _deduplicated(columns, systems)
+         space.lattice_constant_angstrom, np.arange(space.size))])
+    keep = _deduplicated(columns, space)
     gap_term = (np.zeros(len(keep)) if query.gap is None
                 else _gap_window_distance(columns["band_gap_eV"][keep], query.gap))
     columns["score"] = np.zeros(len(columns["mismatch"]))
