@@ -31,7 +31,7 @@ from numpy.typing import NDArray
 from screening import epitaxy
 from screening.alloys.bandgap import band_gap, gap_tables, gap_uncertainty
 from screening.alloys.design import DesignSpace, composition_keys, design_space, grid_count
-from screening.alloys.model import vegard
+from screening.alloys.model import binary_weights, vegard
 from screening.alloys.paging import Page, page_rows, value_keys
 from screening.alloys.properties import VALLEY_NAMES, check_lattice
 from screening.alloys.query import ALL_SYSTEMS, FinderQuery, GapWindow
@@ -172,8 +172,10 @@ class _Search:
     def poisson(self, system_index: NDArray[np.intp], fractions: NDArray[np.float64]
                 ) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
         """(001) Poisson ratio of each composition, and whether the default was assumed."""
-        c11 = vegard(self.packed, system_index, fractions, self.packed.c11_GPa)
-        c12 = vegard(self.packed, system_index, fractions, self.packed.c12_GPa)
+        weights = binary_weights(self.packed, system_index, fractions)  # Vegard, weighed once
+        slots = self.packed.slot_binary[system_index]
+        c11 = np.einsum("ij,ij->i", weights, self.packed.c11_GPa[slots])
+        c12 = np.einsum("ij,ij->i", weights, self.packed.c12_GPa[slots])
         return epitaxy.poisson_ratio_001(c11, c12)
 
     def screen(self, sources: list[tuple[NDArray[np.intp], NDArray[np.float64], NDArray[np.intp],
