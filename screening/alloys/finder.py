@@ -222,10 +222,56 @@ class _Search:
     def uncertainty(self, columns: dict[str, NDArray], rows: NDArray[np.intp]
                     ) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
         """Gap uncertainty (eV) of some survivors, and whether a default bowing entered it."""
-        parts = [gap_uncertainty(self.packed, self.tables, columns["system_index"][chunk],
-                                 columns["fractions"][chunk], columns["channel"][chunk])
+        def evaluate(system_index: NDArray[np.intp], fractions: NDArray[np.float64],
+                     lattice: NDArray[np.float64], channel: NDArray[np.intp]
+                     ) -> tuple[NDArray, ...]:
+            return gap_uncertainty(self.packed, self.tables, system_index, fractions, channel)
+
+        uncertainty, default = self._evaluated(columns, rows, evaluate)
+        return uncertainty, default
+
+    def _evaluated(self, columns: dict[str, NDArray], rows: NDArray[np.intp],
+                   evaluate: Callable[..., tuple[NDArray, ...]]) -> tuple[NDArray, ...]:
+        """Per-composition columns of some survivors, by ``evaluate``.
+
+        ``evaluate(system_index, fractions, lattice, channel)`` gives a tuple of columns, each
+        row's values depending on that row alone.
+
+        Few rows are gathered and evaluated in slices of ``_CHUNK``. Many rows are evaluated
+        on the design space's own arrays, in contiguous slices grouped by system (no gathering,
+        no regrouping), and read back by each row's place in the grid; the exact roots among
+        them are evaluated apart.
+        """
+        origin = columns["origin"][rows]
+        grid = origin >= 0
+        if len(rows) < 4 * _CHUNK:
+            return self._gathered(columns, rows, evaluate)
+        space = self.space
+        channel = np.full(space.size, -1, dtype=np.intp)
+        survivors = np.flatnonzero(columns["origin"] >= 0)
+        channel[columns["origin"][survivors]] = columns["channel"][survivors]
+        parts = [evaluate(space.system_index[a:a + _CHUNK], space.fractions[a:a + _CHUNK],
+                          space.lattice_constant_angstrom[a:a + _CHUNK], channel[a:a + _CHUNK])
+                 for a in range(0, space.size, _CHUNK)]
+        values = []
+        for i in range(len(parts[0])):
+            on_grid = np.concatenate([part[i] for part in parts])
+            value = np.empty(len(rows), dtype=on_grid.dtype)
+            value[grid] = on_grid[origin[grid]]
+            values.append(value)
+        if not grid.all():
+            for value, root in zip(values, self._gathered(columns, rows[~grid], evaluate),
+                                   strict=True):
+                value[~grid] = root
+        return tuple(values)
+
+    def _gathered(self, columns: dict[str, NDArray], rows: NDArray[np.intp],
+                  evaluate: Callable[..., tuple[NDArray, ...]]) -> tuple[NDArray, ...]:
+        """``evaluate`` on the survivors' columns, gathered in slices of ``_CHUNK``."""
+        parts = [evaluate(columns["system_index"][chunk], columns["fractions"][chunk],
+                          columns["lattice_constant_angstrom"][chunk], columns["channel"][chunk])
                  for chunk in _chunks(rows)]
-        return (np.concatenate([p[0] for p in parts]), np.concatenate([p[1] for p in parts]))
+        return tuple(np.concatenate([part[i] for part in parts]) for i in range(len(parts[0])))
 
     def details(self, columns: dict[str, NDArray], rows: NDArray[np.intp]
                 ) -> dict[str, NDArray]:
@@ -242,14 +288,15 @@ class _Search:
     def critical_thickness(self, columns: dict[str, NDArray], rows: NDArray[np.intp]
                            ) -> NDArray[np.float64]:
         """Matthews-Blakeslee h_c (nm) of some survivors (NaN where it does not apply)."""
-        parts = []
-        for chunk in _chunks(rows):
-            system_index = columns["system_index"][chunk]
-            poisson, _ = self.poisson(system_index, columns["fractions"][chunk])
-            h_c = epitaxy.critical_thickness_nm(columns["lattice_constant_angstrom"][chunk],
-                                                self.a_sub, poisson, self.query.geometry)
-            parts.append(np.where(self.zincblende[system_index], h_c, np.nan))
-        return np.concatenate(parts)
+        def evaluate(system_index: NDArray[np.intp], fractions: NDArray[np.float64],
+                     lattice: NDArray[np.float64], channel: NDArray[np.intp]
+                     ) -> tuple[NDArray, ...]:
+            poisson, _ = self.poisson(system_index, fractions)
+            h_c = epitaxy.critical_thickness_nm(lattice, self.a_sub, poisson,
+                                                self.query.geometry)
+            return (np.where(self.zincblende[system_index], h_c, np.nan),)
+
+        return self._evaluated(columns, rows, evaluate)[0]
 
 
 def _deduplicated(columns: dict[str, NDArray], space: DesignSpace) -> NDArray[np.intp]:
