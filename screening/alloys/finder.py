@@ -188,8 +188,8 @@ class _Search:
         screened in slices of ``_CHUNK``, and the survivors' columns joined one at a time, so
         that the temporary arrays stay small whatever the size of the design space.
         """
-        parts = [self._screen(*(column[rows] for column in source))
-                 for source in sources for rows in _chunks(np.arange(len(source[0])))]
+        parts = [self._screen(*(column[a:a + _CHUNK] for column in source))
+                 for source in sources for a in range(0, max(len(source[0]), 1), _CHUNK)]
         return {name: np.concatenate([part.pop(name) for part in parts])
                 for name in list(parts[0])}
 
@@ -201,7 +201,10 @@ class _Search:
         rows = np.arange(len(system_index))
         if query.max_mismatch is not None:
             rows = np.flatnonzero(np.abs(mismatch) <= query.max_mismatch + _SLACK)
-        gap, channel = self.gap(system_index[rows], fractions[rows])
+        if len(rows) == len(system_index):
+            gap, channel = self.gap(system_index, fractions)
+        else:
+            gap, channel = self.gap(system_index[rows], fractions[rows])
         if query.gap is not None:
             inside = ((gap >= query.gap.low_eV - _SLACK) & (gap <= query.gap.high_eV + _SLACK))
             rows, gap, channel = rows[inside], gap[inside], channel[inside]
@@ -214,6 +217,10 @@ class _Search:
             below = (self.zincblende[system_index[rows]]
                      & (np.abs(epitaxy.in_plane_strain(a_rows, self.a_sub)) < limit))
             rows, gap, channel = rows[below], gap[below], channel[below]
+        if len(rows) == len(system_index):  # every one passed: no copy (joined later)
+            return {"system_index": system_index, "fractions": fractions, "kind": kind,
+                    "lattice_constant_angstrom": lattice, "mismatch": mismatch,
+                    "band_gap_eV": gap, "channel": channel, "origin": origin}
         return {"system_index": system_index[rows], "fractions": fractions[rows],
                 "kind": kind[rows], "lattice_constant_angstrom": lattice[rows],
                 "mismatch": mismatch[rows], "band_gap_eV": gap, "channel": channel,
