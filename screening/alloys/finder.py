@@ -32,7 +32,7 @@ from screening import epitaxy
 from screening.alloys.bandgap import band_gap, gap_tables, gap_uncertainty
 from screening.alloys.design import DesignSpace, composition_keys, design_space, grid_count
 from screening.alloys.model import binary_weights, vegard
-from screening.alloys.paging import Page, page_rows, value_keys
+from screening.alloys.paging import Page, SortKey, page_rows, value_keys
 from screening.alloys.properties import VALLEY_NAMES, check_lattice
 from screening.alloys.query import ALL_SYSTEMS, FinderQuery, GapWindow
 from screening.alloys.results import MATCH_KINDS, FinderResult
@@ -344,7 +344,7 @@ def _deduplicated(columns: dict[str, NDArray], space: DesignSpace) -> NDArray[np
 
 
 def _order_keys(columns: dict[str, NDArray], keep: NDArray[np.intp], score: NDArray[np.float64],
-                search: _Search, page: Page) -> list[NDArray]:
+                search: _Search, page: Page) -> list[SortKey]:
     """Sort keys of the kept rows in the asked order, primary first, ending with the score."""
     key = page.order
     if key == "rank":
@@ -352,8 +352,13 @@ def _order_keys(columns: dict[str, NDArray], keep: NDArray[np.intp], score: NDAr
     if key == "formula":  # by system name, then by the fractions in element order
         systems = search.packed.systems
         names = np.argsort(np.argsort([s.name for s in systems]))[columns["system_index"][keep]]
-        keys = [names, *columns["fractions"][keep].T]
-        return [*(-k if page.descending else k for k in keys), score]
+        sign = -1.0 if page.descending else 1.0
+
+        def fraction(column: int) -> Callable[[NDArray[np.intp]], NDArray]:
+            return lambda rows: sign * columns["fractions"][keep[rows], column]
+
+        width = columns["fractions"].shape[1]
+        return [-names if page.descending else names, *map(fraction, range(width)), score]
     if key == "band_gap_uncertainty_eV":
         values = search.uncertainty(columns, keep)[0]
     elif key == "critical_thickness_nm":
