@@ -55,8 +55,10 @@ _SCORE_DECIMALS = 9
 _CHUNK = 65_536
 """Compositions screened at once (bounds the temporary arrays of one search)."""
 
-_CORE = ("system_index", "fractions", "kind", "lattice_constant_angstrom", "mismatch",
-         "band_gap_eV")
+_MANY = 4 * _CHUNK
+"""From this many rows on, a column is evaluated over the whole grid and read back by row."""
+
+_CORE = ("system_index", "fractions", "kind", "lattice_constant_angstrom", "mismatch")
 
 _LATTICE_MATCHED, _TARGET_GAP, _BOTH = (MATCH_KINDS.index(k) for k in MATCH_KINDS[1:])
 
@@ -201,13 +203,15 @@ class _Search:
         rows = np.arange(len(system_index))
         if query.max_mismatch is not None:
             rows = np.flatnonzero(np.abs(mismatch) <= query.max_mismatch + _SLACK)
-        if len(rows) == len(system_index):
-            gap, channel = self.gap(system_index, fractions)
-        else:
-            gap, channel = self.gap(system_index[rows], fractions[rows])
+        gaps = {}  # without a gap window, the gaps wait until a reader needs them (gap_of)
         if query.gap is not None:
+            if len(rows) == len(system_index):
+                gap, channel = self.gap(system_index, fractions)
+            else:
+                gap, channel = self.gap(system_index[rows], fractions[rows])
             inside = ((gap >= query.gap.low_eV - _SLACK) & (gap <= query.gap.high_eV + _SLACK))
-            rows, gap, channel = rows[inside], gap[inside], channel[inside]
+            rows = rows[inside]
+            gaps = {"band_gap_eV": gap[inside], "channel": channel[inside]}
         if query.layer_thickness_nm is not None:  # h < h_c exactly when |eps| < eps_c(h)
             a_rows = lattice[rows]
             poisson, _ = self.poisson(system_index[rows], fractions[rows])
@@ -216,15 +220,38 @@ class _Search:
                 epitaxy.burgers_vector_60(a_rows), poisson, query.geometry)
             below = (self.zincblende[system_index[rows]]
                      & (np.abs(epitaxy.in_plane_strain(a_rows, self.a_sub)) < limit))
-            rows, gap, channel = rows[below], gap[below], channel[below]
+            rows = rows[below]
+            gaps = {name: value[below] for name, value in gaps.items()}
         if len(rows) == len(system_index):  # every one passed: no copy (joined later)
             return {"system_index": system_index, "fractions": fractions, "kind": kind,
                     "lattice_constant_angstrom": lattice, "mismatch": mismatch,
-                    "band_gap_eV": gap, "channel": channel, "origin": origin}
+                    "origin": origin, **gaps}
         return {"system_index": system_index[rows], "fractions": fractions[rows],
                 "kind": kind[rows], "lattice_constant_angstrom": lattice[rows],
-                "mismatch": mismatch[rows], "band_gap_eV": gap, "channel": channel,
-                "origin": origin[rows]}
+                "mismatch": mismatch[rows], "origin": origin[rows], **gaps}
+
+    def gap_of(self, columns: dict[str, NDArray], rows: NDArray[np.intp]
+               ) -> tuple[NDArray[np.float64], NDArray[np.intp]]:
+        """Gap (eV) and channel of some survivors (computed here if the screen did not)."""
+        if "channel" not in columns and len(rows) >= _MANY:
+            self._fill_gaps(columns)
+        if "channel" in columns:
+            return columns["band_gap_eV"][rows], columns["channel"][rows]
+        parts = [self.gap(columns["system_index"][chunk], columns["fractions"][chunk])
+                 for chunk in _chunks(rows)]
+        return np.concatenate([p[0] for p in parts]), np.concatenate([p[1] for p in parts])
+
+    def _fill_gaps(self, columns: dict[str, NDArray]) -> None:
+        """Add the gap and channel columns of every survivor (the grid's read off the grid)."""
+        space, origin = self.space, columns["origin"]
+        parts = [self.gap(space.system_index[a:a + _CHUNK], space.fractions[a:a + _CHUNK])
+                 for a in range(0, space.size, _CHUNK)]
+        gap = np.concatenate([p[0] for p in parts])[origin]
+        channel = np.concatenate([p[1] for p in parts])[origin]
+        roots = np.flatnonzero(origin < 0)
+        gap[roots], channel[roots] = self.gap(columns["system_index"][roots],
+                                              columns["fractions"][roots])
+        columns["band_gap_eV"], columns["channel"] = gap, channel
 
     def uncertainty(self, columns: dict[str, NDArray], rows: NDArray[np.intp]
                     ) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
@@ -234,6 +261,14 @@ class _Search:
                      ) -> tuple[NDArray, ...]:
             return gap_uncertainty(self.packed, self.tables, system_index, fractions, channel)
 
+        if len(rows) < _MANY:
+            channel = self.gap_of(columns, rows)[1]
+            parts = [gap_uncertainty(self.packed, self.tables, columns["system_index"][chunk],
+                                     columns["fractions"][chunk], channel[a:a + _CHUNK])
+                     for a, chunk in zip(range(0, max(len(rows), 1), _CHUNK), _chunks(rows),
+                                         strict=True)]
+            return np.concatenate([p[0] for p in parts]), np.concatenate([p[1] for p in parts])
+        self.gap_of(columns, rows)
         uncertainty, default = self._evaluated(columns, rows, evaluate)
         return uncertainty, default
 
@@ -251,12 +286,13 @@ class _Search:
         """
         origin = columns["origin"][rows]
         grid = origin >= 0
-        if len(rows) < 4 * _CHUNK:
+        if len(rows) < _MANY:
             return self._gathered(columns, rows, evaluate)
         space = self.space
         channel = np.full(space.size, -1, dtype=np.intp)
-        survivors = np.flatnonzero(columns["origin"] >= 0)
-        channel[columns["origin"][survivors]] = columns["channel"][survivors]
+        if "channel" in columns:
+            survivors = np.flatnonzero(columns["origin"] >= 0)
+            channel[columns["origin"][survivors]] = columns["channel"][survivors]
         parts = [evaluate(space.system_index[a:a + _CHUNK], space.fractions[a:a + _CHUNK],
                           space.lattice_constant_angstrom[a:a + _CHUNK], channel[a:a + _CHUNK])
                  for a in range(0, space.size, _CHUNK)]
@@ -275,8 +311,10 @@ class _Search:
     def _gathered(self, columns: dict[str, NDArray], rows: NDArray[np.intp],
                   evaluate: Callable[..., tuple[NDArray, ...]]) -> tuple[NDArray, ...]:
         """``evaluate`` on the survivors' columns, gathered in slices of ``_CHUNK``."""
+        channel = columns.get("channel")
         parts = [evaluate(columns["system_index"][chunk], columns["fractions"][chunk],
-                          columns["lattice_constant_angstrom"][chunk], columns["channel"][chunk])
+                          columns["lattice_constant_angstrom"][chunk],
+                          None if channel is None else channel[chunk])
                  for chunk in _chunks(rows)]
         return tuple(np.concatenate([part[i] for part in parts]) for i in range(len(parts[0])))
 
@@ -284,10 +322,11 @@ class _Search:
                 ) -> dict[str, NDArray]:
         """Every column of a page of survivors (the costly ones computed for those rows only)."""
         page = {name: columns[name][rows] for name in _CORE}
+        page["band_gap_eV"], channel = self.gap_of(columns, rows)
         uncertainty, default = self.uncertainty(columns, rows)
         poisson, assumed = self.poisson(page["system_index"], page["fractions"])
         return {**page, "band_gap_uncertainty_eV": uncertainty,
-                "valley": VALLEY_NAMES[columns["channel"][rows]], "default_bowing": default,
+                "valley": VALLEY_NAMES[channel], "default_bowing": default,
                 "poisson_ratio": poisson, "poisson_assumed": assumed,
                 "critical_thickness_applies": self.zincblende[page["system_index"]],
                 "score": columns["score"][rows]}
@@ -338,8 +377,10 @@ def _deduplicated(columns: dict[str, NDArray], space: DesignSpace) -> NDArray[np
     row_keys = composition_keys(systems, columns["system_index"][rows],
                                 columns["fractions"][rows], space.key_systems)
     unique_keys, best = np.unique(row_keys[order], return_index=True)
-    free = ~np.isin(kept_keys, root_keys)
-    kept, kept_keys = kept[free], kept_keys[free]
+    if len(kept):  # kept_keys is sorted and unique: drop those of the roots' keys
+        at = np.minimum(np.searchsorted(kept_keys, root_keys), len(kept) - 1)
+        shared = at[kept_keys[at] == root_keys]
+        kept, kept_keys = np.delete(kept, shared), np.delete(kept_keys, shared)
     return np.insert(kept, np.searchsorted(kept_keys, unique_keys), rows[order[best]])
 
 
@@ -366,8 +407,10 @@ def _order_keys(columns: dict[str, NDArray], keep: NDArray[np.intp], score: NDAr
     elif key == "abs_mismatch":
         values = np.abs(columns["mismatch"][keep])
     elif key == "wavelength_nm":
-        gap = columns["band_gap_eV"][keep]
+        gap = search.gap_of(columns, keep)[0]
         values = np.where(gap > 0, HC_EV_NM / np.where(gap > 0, gap, 1.0), np.nan)
+    elif key == "band_gap_eV":
+        values = search.gap_of(columns, keep)[0]
     else:
         values = columns[key][keep]
     return [*value_keys(values, page.descending), score]
