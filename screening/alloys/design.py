@@ -16,8 +16,15 @@ from functools import lru_cache
 import numpy as np
 from numpy.typing import NDArray
 
-from screening.alloys.model import ZERO_COLUMN, PackedSystems, pack_systems, vegard
+from screening.alloys.model import (
+    ZERO_COLUMN,
+    PackedSystems,
+    binary_weights,
+    pack_systems,
+    vegard,
+)
 from screening.alloys.systems import AlloySystem, design_space_systems
+from screening.epitaxy import poisson_ratio_001
 from screening.errors import OutOfRangeError
 
 MIN_STEP = {"ternary": 1e-4, "quaternary": 1e-3}
@@ -73,6 +80,9 @@ class DesignSpace:
             elements of ``key_systems``).
         key_order: (npoint,) the rows sorted by composition key, then by the number of
             elements of their system, then by position (the preference among duplicates).
+        key_systems: The systems whose elements the keys are over (the built grid's).
+        poisson_ratio: (npoint,) (001) Poisson ratio of each composition (Vegard C11, C12).
+        poisson_assumed: (npoint,) True where the default Poisson ratio was assumed.
     """
 
     packed: PackedSystems
@@ -84,6 +94,8 @@ class DesignSpace:
     composition_key: NDArray[np.uint64]
     key_order: NDArray[np.intp]
     key_systems: tuple[AlloySystem, ...]
+    poisson_ratio: NDArray[np.float64]
+    poisson_assumed: NDArray[np.bool_]
 
     @property
     def size(self) -> int:
@@ -95,7 +107,7 @@ def design_space(systems: tuple[AlloySystem, ...], ternary_step: float = 0.001,
                  quaternary_step: float = 0.005) -> DesignSpace:
     """The grid of every system: rows of the cached grid of their families' design space.
 
-    One grid per family set and steps is kept (at most ``_SPACES_KEPT``, about 55 MB each for
+    One grid per family set and steps is kept (at most ``_SPACES_KEPT``, about 60 MB each for
     the III-V and II-VI design space); a subset of its systems (as a query that excludes
     elements asks for) is selected from it, not built and kept again. Systems outside the
     design space get a grid of their own.
@@ -128,7 +140,8 @@ def design_space(systems: tuple[AlloySystem, ...], ternary_step: float = 0.001,
         order = _key_order(pack_systems(systems), index[rows], keys)
     return DesignSpace(pack_systems(systems), index[rows], whole.fractions[rows],
                        whole.lattice_constant_angstrom[rows], ternary_step, quaternary_step,
-                       keys, order, whole.key_systems)
+                       keys, order, whole.key_systems, whole.poisson_ratio[rows],
+                       whole.poisson_assumed[rows])
 
 
 def composition_keys(systems: tuple[AlloySystem, ...], system_index: NDArray[np.intp],
@@ -191,7 +204,19 @@ def _built_space(systems: tuple[AlloySystem, ...], ternary_step: float,
     lattice = vegard(packed, index, fractions, packed.lattice_a_angstrom)
     keys = composition_keys(systems, index, fractions)
     order = _key_order(packed, index, keys)
-    for array in (index, fractions, lattice, keys, order):
+    poisson, assumed = poisson_ratio(packed, index, fractions)
+    for array in (index, fractions, lattice, keys, order, poisson, assumed):
         array.flags.writeable = False
     return DesignSpace(packed, index, fractions, lattice, ternary_step, quaternary_step, keys,
-                       order, systems)
+                       order, systems, poisson, assumed)
+
+
+def poisson_ratio(packed: PackedSystems, system_index: NDArray[np.intp],
+                  fractions: NDArray[np.float64]
+                  ) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
+    """(001) Poisson ratio of each composition (Vegard C11, C12); True where assumed."""
+    weights = binary_weights(packed, system_index, fractions)  # Vegard, weighed once
+    slots = packed.slot_binary[system_index]
+    c11 = np.einsum("ij,ij->i", weights, packed.c11_GPa[slots])
+    c12 = np.einsum("ij,ij->i", weights, packed.c12_GPa[slots])
+    return poisson_ratio_001(c11, c12)

@@ -30,8 +30,14 @@ from numpy.typing import NDArray
 
 from screening import epitaxy
 from screening.alloys.bandgap import band_gap, gap_tables, gap_uncertainty
-from screening.alloys.design import DesignSpace, composition_keys, design_space, grid_count
-from screening.alloys.model import binary_weights, vegard
+from screening.alloys.design import (
+    DesignSpace,
+    composition_keys,
+    design_space,
+    grid_count,
+    poisson_ratio,
+)
+from screening.alloys.model import vegard
 from screening.alloys.paging import Page, SortKey, page_rows, value_keys
 from screening.alloys.properties import VALLEY_NAMES, check_lattice
 from screening.alloys.query import ALL_SYSTEMS, FinderQuery, GapWindow
@@ -174,11 +180,7 @@ class _Search:
     def poisson(self, system_index: NDArray[np.intp], fractions: NDArray[np.float64]
                 ) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
         """(001) Poisson ratio of each composition, and whether the default was assumed."""
-        weights = binary_weights(self.packed, system_index, fractions)  # Vegard, weighed once
-        slots = self.packed.slot_binary[system_index]
-        c11 = np.einsum("ij,ij->i", weights, self.packed.c11_GPa[slots])
-        c12 = np.einsum("ij,ij->i", weights, self.packed.c12_GPa[slots])
-        return epitaxy.poisson_ratio_001(c11, c12)
+        return poisson_ratio(self.packed, system_index, fractions)
 
     def screen(self, sources: list[tuple[NDArray[np.intp], NDArray[np.float64], NDArray[np.intp],
                                          NDArray[np.float64], NDArray[np.intp]]]
@@ -257,8 +259,8 @@ class _Search:
                     ) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
         """Gap uncertainty (eV) of some survivors, and whether a default bowing entered it."""
         def evaluate(system_index: NDArray[np.intp], fractions: NDArray[np.float64],
-                     lattice: NDArray[np.float64], channel: NDArray[np.intp]
-                     ) -> tuple[NDArray, ...]:
+                     lattice: NDArray[np.float64], channel: NDArray[np.intp],
+                     poisson: NDArray[np.float64] | None) -> tuple[NDArray, ...]:
             return gap_uncertainty(self.packed, self.tables, system_index, fractions, channel)
 
         if len(rows) < _MANY:
@@ -276,8 +278,9 @@ class _Search:
                    evaluate: Callable[..., tuple[NDArray, ...]]) -> tuple[NDArray, ...]:
         """Per-composition columns of some survivors, by ``evaluate``.
 
-        ``evaluate(system_index, fractions, lattice, channel)`` gives a tuple of columns, each
-        row's values depending on that row alone.
+        ``evaluate(system_index, fractions, lattice, channel, poisson)`` gives a tuple of
+        columns, each row's values depending on that row alone (``poisson``: the grid's Poisson
+        ratios, or None where not at hand).
 
         Few rows are gathered and evaluated in slices of ``_CHUNK``. Many rows are evaluated
         on the design space's own arrays, in contiguous slices grouped by system (no gathering,
@@ -294,7 +297,8 @@ class _Search:
             survivors = np.flatnonzero(columns["origin"] >= 0)
             channel[columns["origin"][survivors]] = columns["channel"][survivors]
         parts = [evaluate(space.system_index[a:a + _CHUNK], space.fractions[a:a + _CHUNK],
-                          space.lattice_constant_angstrom[a:a + _CHUNK], channel[a:a + _CHUNK])
+                          space.lattice_constant_angstrom[a:a + _CHUNK], channel[a:a + _CHUNK],
+                          space.poisson_ratio[a:a + _CHUNK])
                  for a in range(0, space.size, _CHUNK)]
         values = []
         for i in range(len(parts[0])):
@@ -314,7 +318,7 @@ class _Search:
         channel = columns.get("channel")
         parts = [evaluate(columns["system_index"][chunk], columns["fractions"][chunk],
                           columns["lattice_constant_angstrom"][chunk],
-                          None if channel is None else channel[chunk])
+                          None if channel is None else channel[chunk], None)
                  for chunk in _chunks(rows)]
         return tuple(np.concatenate([part[i] for part in parts]) for i in range(len(parts[0])))
 
@@ -335,9 +339,10 @@ class _Search:
                            ) -> NDArray[np.float64]:
         """Matthews-Blakeslee h_c (nm) of some survivors (NaN where it does not apply)."""
         def evaluate(system_index: NDArray[np.intp], fractions: NDArray[np.float64],
-                     lattice: NDArray[np.float64], channel: NDArray[np.intp]
-                     ) -> tuple[NDArray, ...]:
-            poisson, _ = self.poisson(system_index, fractions)
+                     lattice: NDArray[np.float64], channel: NDArray[np.intp],
+                     poisson: NDArray[np.float64] | None) -> tuple[NDArray, ...]:
+            if poisson is None:
+                poisson = self.poisson(system_index, fractions)[0]
             h_c = epitaxy.critical_thickness_nm(lattice, self.a_sub, poisson,
                                                 self.query.geometry)
             return (np.where(self.zincblende[system_index], h_c, np.nan),)
