@@ -247,16 +247,16 @@ def _one_system_uncertainty(packed: PackedSystems, tables: GapTables, s: int,
     slot_sensitivity = np.zeros((WIDTH, n))
     for e in range(n_edges):
         curve = share[e] * u[e] * (1.0 - u[e])
-        bowing_var += (curve * tables.bowing_uncertainty_eV[s, e, ch]) ** 2
-        flag |= (curve > 0.0) & tables.default_bowing[s, e, ch]
-        endpoint_share = np.where(tables.uses_endpoints[s, e, ch], share[e], 0.0)
+        bowing_var += (curve * tables.bowing_uncertainty_eV[s, e][ch]) ** 2
+        flag |= (curve > 0.0) & tables.default_bowing[s, e][ch]
+        endpoint_share = np.where(tables.uses_endpoints[s, e][ch], share[e], 0.0)
         slot_sensitivity[packed.edge_slot_first[s, e]] += endpoint_share * (1.0 - u[e])
         slot_sensitivity[packed.edge_slot_second[s, e]] += endpoint_share * u[e]
     slot_sensitivity = slot_sensitivity.T
     vertex = np.flatnonzero(total <= 0.0)
     if len(vertex):
         slot_sensitivity[vertex] = binary_weights(packed, np.full(len(vertex), s), f[vertex])
-    sigma_end = tables.endpoint_uncertainty_eV[packed.slot_binary[s][None, :], ch[:, None]]
+    sigma_end = tables.endpoint_uncertainty_eV[packed.slot_binary[s]].T[ch]  # (n, slot)
     end_var = np.where(slot_sensitivity > 0.0, (slot_sensitivity * sigma_end) ** 2, 0.0).sum(1)
     unknown = channel < 0
     return (np.where(unknown, np.nan, np.sqrt(bowing_var + end_var)), flag & ~unknown)

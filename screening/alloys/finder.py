@@ -129,6 +129,8 @@ class _Search:
         self.tables = gap_tables(space.packed, float(query.temperature_K))
         self.a_sub = float(query.substrate.lattice_a_angstrom)
         self.zincblende = np.array([s.structure == "zincblende" for s in self.packed.systems])
+        self.grid_channel: NDArray[np.intp] | None = None
+        """Channel of every grid composition, once the gaps were computed over the grid."""
 
     def gap(self, system_index: NDArray[np.intp], fractions: NDArray[np.float64]
             ) -> tuple[NDArray[np.float64], NDArray[np.intp]]:
@@ -248,8 +250,9 @@ class _Search:
         space, origin = self.space, columns["origin"]
         parts = [self.gap(space.system_index[a:a + _CHUNK], space.fractions[a:a + _CHUNK])
                  for a in range(0, space.size, _CHUNK)]
+        self.grid_channel = np.concatenate([p[1] for p in parts])
         gap = np.concatenate([p[0] for p in parts])[origin]
-        channel = np.concatenate([p[1] for p in parts])[origin]
+        channel = self.grid_channel[origin]
         roots = np.flatnonzero(origin < 0)
         gap[roots], channel[roots] = self.gap(columns["system_index"][roots],
                                               columns["fractions"][roots])
@@ -292,8 +295,10 @@ class _Search:
         if len(rows) < _MANY:
             return self._gathered(columns, rows, evaluate)
         space = self.space
-        channel = np.full(space.size, -1, dtype=np.intp)
-        if "channel" in columns:
+        channel = self.grid_channel
+        if channel is None:
+            channel = np.full(space.size, -1, dtype=np.intp)
+        if self.grid_channel is None and "channel" in columns:
             survivors = np.flatnonzero(columns["origin"] >= 0)
             channel[columns["origin"][survivors]] = columns["channel"][survivors]
         parts = [evaluate(space.system_index[a:a + _CHUNK], space.fractions[a:a + _CHUNK],
