@@ -2,7 +2,8 @@
 
 `MatchQuery.parse` checks what a user typed (form, URL or CLI); `run_match` resolves the
 substrate (built-in or the user's) and asks the engine's `find_compositions` for one page of
-matches in the asked order (`offset`, `limit`; the web app caps a page at `MAX_PAGE_ROWS`);
+matches in the asked order (`offset`, `limit`; the web app caps an answer at `MAX_PAGE_ROWS`,
+a finder page at `MAX_TABLE_ROWS`);
 `match_payload` is the object of `GET /api/match` and `bondgap match --json`, and the finder
 page renders the same rows.
 """
@@ -41,7 +42,9 @@ DEFAULT_LIMIT = 500
 MAX_LIMIT = 100_000
 """Largest `limit` accepted (the command line prints up to this many matches)."""
 MAX_PAGE_ROWS = 1000
-"""Most matches in one answer of the web app (API and page); the rest come by `offset`."""
+"""Most matches in one answer of the API; the rest come by `offset`."""
+MAX_TABLE_ROWS = 500
+"""Most matches in one finder page (HTML): the table's rendering costs more per row than JSON."""
 MAX_OFFSET = 1_000_000
 """Largest `offset` accepted: more compositions than the whole design space holds."""
 SORT_KEYS: tuple[str, ...] = ORDER_KEYS
@@ -140,9 +143,9 @@ class MatchQuery:
                    limit=DEFAULT_LIMIT if count is None else int(count),
                    offset=0 if skip is None else int(skip))
 
-    def capped(self) -> MatchQuery:
-        """The query with at most `MAX_PAGE_ROWS` matches per answer (for the web app)."""
-        return replace(self, limit=min(self.limit, MAX_PAGE_ROWS))
+    def capped(self, most: int = MAX_PAGE_ROWS) -> MatchQuery:
+        """The query with at most `most` matches per answer (the web app's API and pages)."""
+        return replace(self, limit=min(self.limit, most))
 
     @property
     def temperature_K(self) -> float:

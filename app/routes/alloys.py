@@ -15,6 +15,7 @@ from app.finder import (
     MAX_LIMIT,
     MAX_OFFSET,
     MAX_PAGE_ROWS,
+    MAX_TABLE_ROWS,
     SORT_KEYS,
     MatchQuery,
     run_match,
@@ -222,7 +223,7 @@ def finder_page(request: Request, session: SessionDep) -> Response:
     status = 200
     if request.query_params:
         try:
-            query = _query_of(request).capped()
+            query = _query_of(request).capped(MAX_TABLE_ROWS)
             run = run_match(session, query)
         except BondgapInputError as exc:
             context["error"], status = str(exc), 400

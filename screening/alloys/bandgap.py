@@ -20,7 +20,6 @@ from screening.alloys.model import (
     WIDTH,
     PackedSystems,
     binary_weights,
-    edge_coordinates,
     system_runs,
 )
 from screening.alloys.systems import AlloySystem
@@ -209,32 +208,55 @@ def gap_uncertainty(packed: PackedSystems, tables: GapTables, system_index: NDAr
     Returns:
         (uncertainty in eV, default-bowing flag), NaN / False where the gap is unknown.
     """
-    n = len(system_index)
-    weight, u = edge_coordinates(packed, system_index, fractions)
-    n_edges = packed.n_edges[system_index]
-    ternary = n_edges == 1
-    weight = np.where(ternary[:, None] & (np.arange(WIDTH) == 0), 1.0, weight)
-    total = weight.sum(axis=1)
-    share = np.divide(weight, total[:, None], out=np.zeros_like(weight),
-                      where=total[:, None] > 0.0)
+    order, runs = system_runs(system_index)
+    ordered = (fractions, channel) if order is None else (fractions[order], channel[order])
+    sigma = np.empty(len(system_index))
+    flag = np.empty(len(system_index), dtype=bool)
+    for s, start, stop in runs:
+        sigma[start:stop], flag[start:stop] = _one_system_uncertainty(
+            packed, tables, s, ordered[0][start:stop], ordered[1][start:stop])
+    if order is not None:
+        sigma[order], flag[order] = sigma.copy(), flag.copy()
+    return sigma, flag
+
+
+def _one_system_uncertainty(packed: PackedSystems, tables: GapTables, s: int,
+                            f: NDArray[np.float64], channel: NDArray[np.intp]
+                            ) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
+    """:func:`gap_uncertainty` of compositions f (n, 5) of one system s.
+
+    The padding edges of a system (weight 0) add nothing, so only its own edges are visited.
+    """
+    columns = np.ascontiguousarray(f.T)
+    n = len(f)
+    n_edges = int(packed.n_edges[s])
+    first, second, other = packed.edge_first[s], packed.edge_second[s], packed.edge_other[s]
+    u = [0.5 * (1.0 - columns[first[e]] + columns[second[e]]) for e in range(n_edges)]
+    if n_edges == 1:
+        weight = [np.ones(n)]
+    else:
+        weight = [columns[first[e]] * columns[second[e]] * columns[other[e]]
+                  for e in range(n_edges)]
+    total = weight[0]
+    for e in range(1, n_edges):
+        total = total + weight[e]
+    share = [np.divide(w, total, out=np.zeros(n), where=total > 0.0) for w in weight]
     ch = np.clip(channel, 0, None)
-    rows = np.arange(n)
     bowing_var = np.zeros(n)
     flag = np.zeros(n, dtype=bool)
-    slot_sensitivity = np.zeros((n, WIDTH))
-    for e in range(WIDTH):
-        sigma = tables.bowing_uncertainty_eV[system_index, e, ch]
-        bowing_var += (share[:, e] * u[:, e] * (1.0 - u[:, e]) * sigma) ** 2
-        bowed = share[:, e] * u[:, e] * (1.0 - u[:, e]) > 0.0
-        flag |= bowed & tables.default_bowing[system_index, e, ch]
-        endpoint_share = np.where(tables.uses_endpoints[system_index, e, ch], share[:, e], 0.0)
-        first = packed.edge_slot_first[system_index, e]
-        second = packed.edge_slot_second[system_index, e]
-        slot_sensitivity[rows, first] += endpoint_share * (1.0 - u[:, e])
-        slot_sensitivity[rows, second] += endpoint_share * u[:, e]
-    vertex = total <= 0.0
-    slot_sensitivity[vertex] = binary_weights(packed, system_index[vertex], fractions[vertex])
-    sigma_end = tables.endpoint_uncertainty_eV[packed.slot_binary[system_index], ch[:, None]]
+    slot_sensitivity = np.zeros((WIDTH, n))
+    for e in range(n_edges):
+        curve = share[e] * u[e] * (1.0 - u[e])
+        bowing_var += (curve * tables.bowing_uncertainty_eV[s, e][ch]) ** 2
+        flag |= (curve > 0.0) & tables.default_bowing[s, e][ch]
+        endpoint_share = np.where(tables.uses_endpoints[s, e][ch], share[e], 0.0)
+        slot_sensitivity[packed.edge_slot_first[s, e]] += endpoint_share * (1.0 - u[e])
+        slot_sensitivity[packed.edge_slot_second[s, e]] += endpoint_share * u[e]
+    slot_sensitivity = slot_sensitivity.T
+    vertex = np.flatnonzero(total <= 0.0)
+    if len(vertex):
+        slot_sensitivity[vertex] = binary_weights(packed, np.full(len(vertex), s), f[vertex])
+    sigma_end = tables.endpoint_uncertainty_eV[packed.slot_binary[s]].T[ch]  # (n, slot)
     end_var = np.where(slot_sensitivity > 0.0, (slot_sensitivity * sigma_end) ** 2, 0.0).sum(1)
     unknown = channel < 0
     return (np.where(unknown, np.nan, np.sqrt(bowing_var + end_var)), flag & ~unknown)

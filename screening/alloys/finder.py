@@ -30,9 +30,15 @@ from numpy.typing import NDArray
 
 from screening import epitaxy
 from screening.alloys.bandgap import band_gap, gap_tables, gap_uncertainty
-from screening.alloys.design import DesignSpace, design_space, grid_count
+from screening.alloys.design import (
+    DesignSpace,
+    composition_keys,
+    design_space,
+    grid_count,
+    poisson_ratio,
+)
 from screening.alloys.model import vegard
-from screening.alloys.paging import Page, page_rows, value_keys
+from screening.alloys.paging import Page, SortKey, page_rows, value_keys
 from screening.alloys.properties import VALLEY_NAMES, check_lattice
 from screening.alloys.query import ALL_SYSTEMS, FinderQuery, GapWindow
 from screening.alloys.results import MATCH_KINDS, FinderResult
@@ -55,8 +61,10 @@ _SCORE_DECIMALS = 9
 _CHUNK = 65_536
 """Compositions screened at once (bounds the temporary arrays of one search)."""
 
-_CORE = ("system_index", "fractions", "kind", "lattice_constant_angstrom", "mismatch",
-         "band_gap_eV")
+_MANY = 4 * _CHUNK
+"""From this many rows on, a column is evaluated over the whole grid and read back by row."""
+
+_CORE = ("system_index", "fractions", "kind", "lattice_constant_angstrom", "mismatch")
 
 _LATTICE_MATCHED, _TARGET_GAP, _BOTH = (MATCH_KINDS.index(k) for k in MATCH_KINDS[1:])
 
@@ -121,6 +129,8 @@ class _Search:
         self.tables = gap_tables(space.packed, float(query.temperature_K))
         self.a_sub = float(query.substrate.lattice_a_angstrom)
         self.zincblende = np.array([s.structure == "zincblende" for s in self.packed.systems])
+        self.grid_channel: NDArray[np.intp] | None = None
+        """Channel of every grid composition, once the gaps were computed over the grid."""
 
     def gap(self, system_index: NDArray[np.intp], fractions: NDArray[np.float64]
             ) -> tuple[NDArray[np.float64], NDArray[np.intp]]:
@@ -172,34 +182,40 @@ class _Search:
     def poisson(self, system_index: NDArray[np.intp], fractions: NDArray[np.float64]
                 ) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
         """(001) Poisson ratio of each composition, and whether the default was assumed."""
-        c11 = vegard(self.packed, system_index, fractions, self.packed.c11_GPa)
-        c12 = vegard(self.packed, system_index, fractions, self.packed.c12_GPa)
-        return epitaxy.poisson_ratio_001(c11, c12)
+        return poisson_ratio(self.packed, system_index, fractions)
 
     def screen(self, sources: list[tuple[NDArray[np.intp], NDArray[np.float64], NDArray[np.intp],
-                                         NDArray[np.float64]]]) -> dict[str, NDArray]:
+                                         NDArray[np.float64], NDArray[np.intp]]]
+               ) -> dict[str, NDArray]:
         """Apply every limit to sets of compositions; the survivors' core columns.
 
-        Each source is (system index, fractions, kind, lattice constant). The compositions are
+        Each source is (system index, fractions, kind, lattice constant, origin: the row of
+        the design space, -1 for an exact root). The compositions are
         screened in slices of ``_CHUNK``, and the survivors' columns joined one at a time, so
         that the temporary arrays stay small whatever the size of the design space.
         """
-        parts = [self._screen(*(column[rows] for column in source))
-                 for source in sources for rows in _chunks(np.arange(len(source[0])))]
+        parts = [self._screen(*(column[a:a + _CHUNK] for column in source))
+                 for source in sources for a in range(0, max(len(source[0]), 1), _CHUNK)]
         return {name: np.concatenate([part.pop(name) for part in parts])
                 for name in list(parts[0])}
 
     def _screen(self, system_index: NDArray[np.intp], fractions: NDArray[np.float64],
-                kind: NDArray[np.intp], lattice: NDArray[np.float64]) -> dict[str, NDArray]:
+                kind: NDArray[np.intp], lattice: NDArray[np.float64], origin: NDArray[np.intp]
+                ) -> dict[str, NDArray]:
         query = self.query
         mismatch = lattice / self.a_sub - 1.0
         rows = np.arange(len(system_index))
         if query.max_mismatch is not None:
             rows = np.flatnonzero(np.abs(mismatch) <= query.max_mismatch + _SLACK)
-        gap, channel = self.gap(system_index[rows], fractions[rows])
+        gaps = {}  # without a gap window, the gaps wait until a reader needs them (gap_of)
         if query.gap is not None:
+            if len(rows) == len(system_index):
+                gap, channel = self.gap(system_index, fractions)
+            else:
+                gap, channel = self.gap(system_index[rows], fractions[rows])
             inside = ((gap >= query.gap.low_eV - _SLACK) & (gap <= query.gap.high_eV + _SLACK))
-            rows, gap, channel = rows[inside], gap[inside], channel[inside]
+            rows = rows[inside]
+            gaps = {"band_gap_eV": gap[inside], "channel": channel[inside]}
         if query.layer_thickness_nm is not None:  # h < h_c exactly when |eps| < eps_c(h)
             a_rows = lattice[rows]
             poisson, _ = self.poisson(system_index[rows], fractions[rows])
@@ -208,27 +224,118 @@ class _Search:
                 epitaxy.burgers_vector_60(a_rows), poisson, query.geometry)
             below = (self.zincblende[system_index[rows]]
                      & (np.abs(epitaxy.in_plane_strain(a_rows, self.a_sub)) < limit))
-            rows, gap, channel = rows[below], gap[below], channel[below]
+            rows = rows[below]
+            gaps = {name: value[below] for name, value in gaps.items()}
+        if len(rows) == len(system_index):  # every one passed: no copy (joined later)
+            return {"system_index": system_index, "fractions": fractions, "kind": kind,
+                    "lattice_constant_angstrom": lattice, "mismatch": mismatch,
+                    "origin": origin, **gaps}
         return {"system_index": system_index[rows], "fractions": fractions[rows],
                 "kind": kind[rows], "lattice_constant_angstrom": lattice[rows],
-                "mismatch": mismatch[rows], "band_gap_eV": gap, "channel": channel}
+                "mismatch": mismatch[rows], "origin": origin[rows], **gaps}
+
+    def gap_of(self, columns: dict[str, NDArray], rows: NDArray[np.intp]
+               ) -> tuple[NDArray[np.float64], NDArray[np.intp]]:
+        """Gap (eV) and channel of some survivors (computed here if the screen did not)."""
+        if "channel" not in columns and len(rows) >= _MANY:
+            self._fill_gaps(columns)
+        if "channel" in columns:
+            return columns["band_gap_eV"][rows], columns["channel"][rows]
+        parts = [self.gap(columns["system_index"][chunk], columns["fractions"][chunk])
+                 for chunk in _chunks(rows)]
+        return np.concatenate([p[0] for p in parts]), np.concatenate([p[1] for p in parts])
+
+    def _fill_gaps(self, columns: dict[str, NDArray]) -> None:
+        """Add the gap and channel columns of every survivor (the grid's read off the grid)."""
+        space, origin = self.space, columns["origin"]
+        parts = [self.gap(space.system_index[a:a + _CHUNK], space.fractions[a:a + _CHUNK])
+                 for a in range(0, space.size, _CHUNK)]
+        self.grid_channel = np.concatenate([p[1] for p in parts])
+        gap = np.concatenate([p[0] for p in parts])[origin]
+        channel = self.grid_channel[origin]
+        roots = np.flatnonzero(origin < 0)
+        gap[roots], channel[roots] = self.gap(columns["system_index"][roots],
+                                              columns["fractions"][roots])
+        columns["band_gap_eV"], columns["channel"] = gap, channel
 
     def uncertainty(self, columns: dict[str, NDArray], rows: NDArray[np.intp]
                     ) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
         """Gap uncertainty (eV) of some survivors, and whether a default bowing entered it."""
-        parts = [gap_uncertainty(self.packed, self.tables, columns["system_index"][chunk],
-                                 columns["fractions"][chunk], columns["channel"][chunk])
+        def evaluate(system_index: NDArray[np.intp], fractions: NDArray[np.float64],
+                     lattice: NDArray[np.float64], channel: NDArray[np.intp],
+                     poisson: NDArray[np.float64] | None) -> tuple[NDArray, ...]:
+            return gap_uncertainty(self.packed, self.tables, system_index, fractions, channel)
+
+        if len(rows) < _MANY:
+            channel = self.gap_of(columns, rows)[1]
+            parts = [gap_uncertainty(self.packed, self.tables, columns["system_index"][chunk],
+                                     columns["fractions"][chunk], channel[a:a + _CHUNK])
+                     for a, chunk in zip(range(0, max(len(rows), 1), _CHUNK), _chunks(rows),
+                                         strict=True)]
+            return np.concatenate([p[0] for p in parts]), np.concatenate([p[1] for p in parts])
+        self.gap_of(columns, rows)
+        uncertainty, default = self._evaluated(columns, rows, evaluate)
+        return uncertainty, default
+
+    def _evaluated(self, columns: dict[str, NDArray], rows: NDArray[np.intp],
+                   evaluate: Callable[..., tuple[NDArray, ...]]) -> tuple[NDArray, ...]:
+        """Per-composition columns of some survivors, by ``evaluate``.
+
+        ``evaluate(system_index, fractions, lattice, channel, poisson)`` gives a tuple of
+        columns, each row's values depending on that row alone (``poisson``: the grid's Poisson
+        ratios, or None where not at hand).
+
+        Few rows are gathered and evaluated in slices of ``_CHUNK``. Many rows are evaluated
+        on the design space's own arrays, in contiguous slices grouped by system (no gathering,
+        no regrouping), and read back by each row's place in the grid; the exact roots among
+        them are evaluated apart.
+        """
+        origin = columns["origin"][rows]
+        grid = origin >= 0
+        if len(rows) < _MANY:
+            return self._gathered(columns, rows, evaluate)
+        space = self.space
+        channel = self.grid_channel
+        if channel is None:
+            channel = np.full(space.size, -1, dtype=np.intp)
+        if self.grid_channel is None and "channel" in columns:
+            survivors = np.flatnonzero(columns["origin"] >= 0)
+            channel[columns["origin"][survivors]] = columns["channel"][survivors]
+        parts = [evaluate(space.system_index[a:a + _CHUNK], space.fractions[a:a + _CHUNK],
+                          space.lattice_constant_angstrom[a:a + _CHUNK], channel[a:a + _CHUNK],
+                          space.poisson_ratio[a:a + _CHUNK])
+                 for a in range(0, space.size, _CHUNK)]
+        values = []
+        for i in range(len(parts[0])):
+            on_grid = np.concatenate([part[i] for part in parts])
+            value = np.empty(len(rows), dtype=on_grid.dtype)
+            value[grid] = on_grid[origin[grid]]
+            values.append(value)
+        if not grid.all():
+            for value, root in zip(values, self._gathered(columns, rows[~grid], evaluate),
+                                   strict=True):
+                value[~grid] = root
+        return tuple(values)
+
+    def _gathered(self, columns: dict[str, NDArray], rows: NDArray[np.intp],
+                  evaluate: Callable[..., tuple[NDArray, ...]]) -> tuple[NDArray, ...]:
+        """``evaluate`` on the survivors' columns, gathered in slices of ``_CHUNK``."""
+        channel = columns.get("channel")
+        parts = [evaluate(columns["system_index"][chunk], columns["fractions"][chunk],
+                          columns["lattice_constant_angstrom"][chunk],
+                          None if channel is None else channel[chunk], None)
                  for chunk in _chunks(rows)]
-        return (np.concatenate([p[0] for p in parts]), np.concatenate([p[1] for p in parts]))
+        return tuple(np.concatenate([part[i] for part in parts]) for i in range(len(parts[0])))
 
     def details(self, columns: dict[str, NDArray], rows: NDArray[np.intp]
                 ) -> dict[str, NDArray]:
         """Every column of a page of survivors (the costly ones computed for those rows only)."""
         page = {name: columns[name][rows] for name in _CORE}
+        page["band_gap_eV"], channel = self.gap_of(columns, rows)
         uncertainty, default = self.uncertainty(columns, rows)
         poisson, assumed = self.poisson(page["system_index"], page["fractions"])
         return {**page, "band_gap_uncertainty_eV": uncertainty,
-                "valley": VALLEY_NAMES[columns["channel"][rows]], "default_bowing": default,
+                "valley": VALLEY_NAMES[channel], "default_bowing": default,
                 "poisson_ratio": poisson, "poisson_assumed": assumed,
                 "critical_thickness_applies": self.zincblende[page["system_index"]],
                 "score": columns["score"][rows]}
@@ -236,49 +343,59 @@ class _Search:
     def critical_thickness(self, columns: dict[str, NDArray], rows: NDArray[np.intp]
                            ) -> NDArray[np.float64]:
         """Matthews-Blakeslee h_c (nm) of some survivors (NaN where it does not apply)."""
-        parts = []
-        for chunk in _chunks(rows):
-            system_index = columns["system_index"][chunk]
-            poisson, _ = self.poisson(system_index, columns["fractions"][chunk])
-            h_c = epitaxy.critical_thickness_nm(columns["lattice_constant_angstrom"][chunk],
-                                                self.a_sub, poisson, self.query.geometry)
-            parts.append(np.where(self.zincblende[system_index], h_c, np.nan))
-        return np.concatenate(parts)
+        def evaluate(system_index: NDArray[np.intp], fractions: NDArray[np.float64],
+                     lattice: NDArray[np.float64], channel: NDArray[np.intp],
+                     poisson: NDArray[np.float64] | None) -> tuple[NDArray, ...]:
+            if poisson is None:
+                poisson = self.poisson(system_index, fractions)[0]
+            h_c = epitaxy.critical_thickness_nm(lattice, self.a_sub, poisson,
+                                                self.query.geometry)
+            return (np.where(self.zincblende[system_index], h_c, np.nan),)
+
+        return self._evaluated(columns, rows, evaluate)[0]
 
 
-def _composition_keys(packed_systems: tuple[AlloySystem, ...], system_index: NDArray[np.intp],
-                      fractions: NDArray[np.float64]) -> NDArray[np.uint64]:
-    """A hash of each composition that ignores which system it was reached through.
+def _deduplicated(columns: dict[str, NDArray], space: DesignSpace) -> NDArray[np.intp]:
+    """Rows to keep, one per composition: the smallest system's, exact roots before grid.
 
-    Each element gets a fixed pseudo-random 64-bit multiplier; the key is the sum over the
-    elements of multiplier * round(fraction * 2^30) (wrapping), so In0.5Ga0.5As from InGaAs
-    and from AlInGaAs (Al = 0) get the same key.
+    Returned in the order of the composition keys. The grid rows come ordered by key (and by
+    preference among equal keys) with the design space; only the keys that an exact root
+    shares are decided here, among the few rows that carry them.
     """
-    elements = sorted({e for s in packed_systems for e in s.elements})
-    multipliers = np.random.default_rng(0).integers(
-        1, 2**63, size=len(elements) + 1, dtype=np.uint64)
-    position = {e: i for i, e in enumerate(elements)}
-    width = fractions.shape[1]
-    table = np.full((len(packed_systems), width), len(elements), dtype=np.intp)
-    for s, system in enumerate(packed_systems):  # loop over systems
-        table[s, : len(system.elements)] = [position[e] for e in system.elements]
-    steps = np.rint(fractions * 2.0**30).astype(np.uint64)
-    with np.errstate(over="ignore"):
-        return (multipliers[table[system_index]] * steps).sum(axis=1, dtype=np.uint64)
-
-
-def _deduplicated(columns: dict[str, NDArray], systems: tuple[AlloySystem, ...]
-                  ) -> NDArray[np.intp]:
-    """Rows to keep, one per composition: the smallest system's, exact roots before grid."""
-    n_elements = np.array([len(s.elements) for s in systems])[columns["system_index"]]
-    order = np.lexsort((-columns["kind"], n_elements))
-    keys = _composition_keys(systems, columns["system_index"], columns["fractions"])
-    _, first = np.unique(keys[order], return_index=True)
-    return order[first]
+    origin = columns["origin"]
+    n_roots = int(np.count_nonzero(origin < 0))  # the roots come first
+    column_of = np.full(space.size, -1, dtype=np.intp)
+    column_of[origin[n_roots:]] = np.arange(n_roots, len(origin))
+    grid = column_of[space.key_order]
+    grid = grid[grid >= 0]  # surviving grid rows, by key, preferred first among equal keys
+    keys = space.composition_key[origin[grid]]
+    first = np.ones(len(grid), dtype=bool)
+    first[1:] = keys[1:] != keys[:-1]
+    kept, kept_keys = grid[first], keys[first]
+    if not n_roots:
+        return kept
+    systems = space.packed.systems
+    root_keys = np.unique(composition_keys(systems, columns["system_index"][:n_roots],
+                                           columns["fractions"][:n_roots], space.key_systems))
+    low = np.searchsorted(keys, root_keys, side="left")
+    high = np.searchsorted(keys, root_keys, side="right")
+    counts = high - low  # the grid rows that share each root's key: low .. high - 1
+    shared = np.arange(counts.sum()) + np.repeat(low - (np.cumsum(counts) - counts), counts)
+    rows = np.concatenate([np.arange(n_roots), np.sort(grid[shared])])
+    n_elements = np.array([len(s.elements) for s in systems])[columns["system_index"][rows]]
+    order = np.lexsort((-columns["kind"][rows], n_elements))
+    row_keys = composition_keys(systems, columns["system_index"][rows],
+                                columns["fractions"][rows], space.key_systems)
+    unique_keys, best = np.unique(row_keys[order], return_index=True)
+    if len(kept):  # kept_keys is sorted and unique: drop those of the roots' keys
+        at = np.minimum(np.searchsorted(kept_keys, root_keys), len(kept) - 1)
+        shared = at[kept_keys[at] == root_keys]
+        kept, kept_keys = np.delete(kept, shared), np.delete(kept_keys, shared)
+    return np.insert(kept, np.searchsorted(kept_keys, unique_keys), rows[order[best]])
 
 
 def _order_keys(columns: dict[str, NDArray], keep: NDArray[np.intp], score: NDArray[np.float64],
-                search: _Search, page: Page) -> list[NDArray]:
+                search: _Search, page: Page) -> list[SortKey]:
     """Sort keys of the kept rows in the asked order, primary first, ending with the score."""
     key = page.order
     if key == "rank":
@@ -286,8 +403,13 @@ def _order_keys(columns: dict[str, NDArray], keep: NDArray[np.intp], score: NDAr
     if key == "formula":  # by system name, then by the fractions in element order
         systems = search.packed.systems
         names = np.argsort(np.argsort([s.name for s in systems]))[columns["system_index"][keep]]
-        keys = [names, *columns["fractions"][keep].T]
-        return [*(-k if page.descending else k for k in keys), score]
+        sign = -1.0 if page.descending else 1.0
+
+        def fraction(column: int) -> Callable[[NDArray[np.intp]], NDArray]:
+            return lambda rows: sign * columns["fractions"][keep[rows], column]
+
+        width = columns["fractions"].shape[1]
+        return [-names if page.descending else names, *map(fraction, range(width)), score]
     if key == "band_gap_uncertainty_eV":
         values = search.uncertainty(columns, keep)[0]
     elif key == "critical_thickness_nm":
@@ -295,8 +417,10 @@ def _order_keys(columns: dict[str, NDArray], keep: NDArray[np.intp], score: NDAr
     elif key == "abs_mismatch":
         values = np.abs(columns["mismatch"][keep])
     elif key == "wavelength_nm":
-        gap = columns["band_gap_eV"][keep]
+        gap = search.gap_of(columns, keep)[0]
         values = np.where(gap > 0, HC_EV_NM / np.where(gap > 0, gap, 1.0), np.nan)
+    elif key == "band_gap_eV":
+        values = search.gap_of(columns, keep)[0]
     else:
         values = columns[key][keep]
     return [*value_keys(values, page.descending), score]
@@ -346,10 +470,10 @@ def find_compositions(query: FinderQuery, page: Page | None = None) -> FinderRes
     root_sys, root_frac, root_kind = search.roots()
     root_lattice = vegard(space.packed, root_sys, root_frac, space.packed.lattice_a_angstrom)
     columns = search.screen([
-        (root_sys, root_frac, root_kind, root_lattice),
+        (root_sys, root_frac, root_kind, root_lattice, np.full(len(root_sys), -1)),
         (space.system_index, space.fractions, np.zeros(space.size, dtype=np.intp),
-         space.lattice_constant_angstrom)])
-    keep = _deduplicated(columns, systems)
+         space.lattice_constant_angstrom, np.arange(space.size))])
+    keep = _deduplicated(columns, space)
     gap_term = (np.zeros(len(keep)) if query.gap is None
                 else _gap_window_distance(columns["band_gap_eV"][keep], query.gap))
     columns["score"] = np.zeros(len(columns["mismatch"]))

@@ -68,7 +68,11 @@ def value_keys(values: NDArray[np.float64], descending: bool) -> list[NDArray]:
     return [np.where(missing, np.inf, signed), missing]
 
 
-def page_rows(keys: list[NDArray], tie_break: Callable[[NDArray[np.intp]], NDArray],
+SortKey = NDArray | Callable[[NDArray[np.intp]], NDArray]
+"""A sort key: its values over every row, or a function giving them for some rows."""
+
+
+def page_rows(keys: list[SortKey], tie_break: Callable[[NDArray[np.intp]], NDArray],
               start: int, stop: int) -> NDArray[np.intp]:
     """Rows [start, stop) of the order given by `keys` (primary first), then `tie_break`.
 
@@ -78,7 +82,8 @@ def page_rows(keys: list[NDArray], tie_break: Callable[[NDArray[np.intp]], NDArr
 
     Args:
         keys: Arrays over the rows, compared in turn (all of one length; the primary key
-            without NaN).
+            without NaN); a key after the primary may be a function of row indices, asked
+            only for the rows near the page.
         tie_break: Values of the last key for some rows (called once).
         start: First position wanted.
         stop: One past the last position wanted.
@@ -95,12 +100,14 @@ def page_rows(keys: list[NDArray], tie_break: Callable[[NDArray[np.intp]], NDArr
     window = np.flatnonzero((primary >= low) & (primary <= high))
     start -= int(np.count_nonzero(primary < low))
     stop -= len(primary) - len(window) - int(np.count_nonzero(primary > high))
-    window = window[np.lexsort([key[window] for key in keys[::-1]])]
+    values = [key(window) if callable(key) else key[window] for key in keys]
+    ordered = np.lexsort(values[::-1])
+    window = window[ordered]
     new_group = np.zeros(len(window), dtype=bool)
     new_group[0] = True
-    for key in keys:
-        ordered = key[window]
-        new_group[1:] |= ordered[1:] != ordered[:-1]
+    for value in values:
+        value = value[ordered]
+        new_group[1:] |= value[1:] != value[:-1]
     starts = np.flatnonzero(new_group)
     first = int(starts[np.searchsorted(starts, start, side="right") - 1])
     after = np.searchsorted(starts, stop, side="left")
