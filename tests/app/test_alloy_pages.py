@@ -139,3 +139,21 @@ def test_open_a_composition_from_the_finder(client) -> None:
     assert response.headers["location"] == "/compounds/In0.53Ga0.47As?on=InP"
     bad = client.get("/alloys/open", params={"formula": "In0.6Ga0.6As"})
     assert bad.status_code == 400 and "sum to 1.2" in bad.text
+
+
+def test_the_finder_page_shows_at_most_its_table_cap_and_links_the_next_rows(client) -> None:
+    # Issue 10, bounded requests: a page holds at most MAX_TABLE_ROWS matches, however large
+    # the limit asked, and links the rest; the rows are those of the API's page.
+    from app.finder import MAX_TABLE_ROWS
+
+    params = {"system": "InGaAsP", "on": "InP", "limit": "100000"}
+    page = soup(client.get("/alloys", params=params))
+    rows = page.select("#match-table tbody tr")
+    assert len(rows) == MAX_TABLE_ROWS
+    api = client.get("/api/match", params={**params, "limit": str(MAX_TABLE_ROWS)}).json()
+    assert [r["data-formula"] for r in rows] == [m["formula"] for m in api["matches"]]
+    assert api["count"] > MAX_TABLE_ROWS
+    link = page.select_one("#next-page")["href"]
+    assert f"offset={MAX_TABLE_ROWS}" in link
+    following = soup(client.get(link)).select("#match-table tbody tr")
+    assert following and following[0]["data-formula"] not in {r["data-formula"] for r in rows}
