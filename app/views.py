@@ -139,7 +139,9 @@ def report_sections(report: dict[str, Any]) -> list[Section]:
     known = {q.key for q in QUANTITIES}
     for q in (*QUANTITIES, *(e for e in EXTRA_QUANTITIES if e.key not in known)):
         group = q.key.split(".")[0] if "." in q.key else "structure"
-        line = Line(q.label, dig(report, q.key), q.unit, q.route_in(report), q.reference)
+        uncertainty = dig(report, q.uncertainty_key) if q.uncertainty_key else None
+        line = Line(q.label, dig(report, q.key), q.unit, q.route_in(report), q.reference,
+                    uncertainty=uncertainty)
         groups.setdefault(group, []).append(line)
     groups.setdefault("coordination", []).append(Line(
         "Coordination (observed)", dig(report, "coordination.observed"), "",

@@ -22,6 +22,9 @@ class Quantity:
     detail_key: str | None = None
     """Dotted report path of a per-compound word on the route (which bond length, which
     structure), shown after the route; None where the route is the same for every compound."""
+    uncertainty_key: str | None = None
+    """Dotted report path of the estimate's uncertainty (same unit), shown as "± u"; None for
+    a quantity reported without one."""
 
     def route_in(self, report: Mapping[str, Any]) -> str:
         """The route for one report: the declared route, plus its per-compound detail."""
@@ -50,9 +53,10 @@ QUANTITIES: Final[tuple[Quantity, ...]] = (
     Quantity("lattice_constant_angstrom", "Lattice constant a", "Å", "measured",
              "seed data (source per value)"),
     Quantity("lattice_constant_estimated_angstrom", "Lattice constant a (estimated)", "Å",
-             "a = 4d/√3 (zincblende), 2d (rocksalt), √(8/3) d (ideal wurtzite) from the "
-             "estimated bond length", f"{RADII}; I. D. Brown and D. Altermatt, Acta Cryst. B 41, "
-             "244 (1985) for sixfold bonds", detail_key="lattice_estimate.route"),
+             "cell geometry of the structure from the estimated bond length",
+             f"{RADII}; I. D. Brown and D. Altermatt, Acta Cryst. B 41, "
+             "244 (1985) for sixfold bonds", detail_key="lattice_estimate.route",
+             uncertainty_key="lattice_estimate.uncertainty_angstrom"),
     Quantity("bond_length_angstrom", "Bond length (measured)", "Å",
              "from the measured lattice constant and structure", "seed data"),
     Quantity("bond_length_estimated_angstrom", "Bond length (estimated)", "Å",

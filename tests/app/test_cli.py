@@ -120,3 +120,15 @@ def test_entry_point_runs_without_traceback(db_path: Path) -> None:
     )
     assert done.returncode == 2 and "Traceback" not in done.stderr
     assert done.stderr.startswith("bondgap: error: ")
+
+
+def test_show_gives_the_estimated_lattice_constant_with_its_uncertainty(db_path: Path,
+                                                                        capsys) -> None:
+    # BSb has no measured lattice constant (seed data): its estimate carries its ± (the
+    # leave-one-out RMS of the bond length times da/dd), rounded to it (app.numbers rule).
+    code, out, _ = run(capsys, "show", "BSb", "--db", str(db_path))
+    line = next(x for x in out.splitlines() if "Lattice constant a (estimated)" in x)
+    value, _, rest = line.split(")", 1)[1].strip().partition(" ± ")
+    uncertainty = rest.split()[0]
+    assert code == 0 and float(uncertainty) > 0
+    assert len(value.partition(".")[2]) == len(uncertainty.partition(".")[2])
