@@ -3,7 +3,7 @@ import io
 import sqlite3
 
 import pytest
-from hypothesis import HealthCheck, given, settings
+from hypothesis import HealthCheck, assume, given, settings
 from hypothesis import strategies as st
 
 from app.columns import COLUMNS_BY_KEY
@@ -147,6 +147,9 @@ def test_plotly_is_served_from_the_installed_package_only(client, settings) -> N
 @given(text=st.text(st.characters(exclude_categories=("Cs", "Cc")), max_size=40))
 def test_any_formula_text_gets_200_or_400(client, text: str) -> None:
     formula = text.replace("/", "").replace("?", "").replace("#", "")
+    # "." and ".." are dot segments of the URL path (RFC 3986 section 5.2.4), not formula text:
+    # the client resolves them before sending, to /api/compounds itself.
+    assume(formula not in (".", ".."))
     response = client.get("/api/compounds/" + formula)
     assert response.status_code in (200, 400, 404)
     assert isinstance(response.json()["detail" if response.status_code != 200 else "formula"], str)
