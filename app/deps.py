@@ -10,6 +10,7 @@ from sqlalchemy.orm import Session
 
 from app.columns import COLUMNS_BY_KEY
 from app.config import Settings
+from app.number_input import PlainWhole
 from app.params import (
     DEFAULT_POINTS,
     FAMILY_CHOICES,
@@ -124,5 +125,34 @@ SessionDep = Annotated[Session, Depends(get_session)]
 TableQueryDep = Annotated[TableQuery, Depends(table_query)]
 TemperatureDep = Annotated[float | None, Depends(temperature_query)]
 PointsDep = Annotated[int, Depends(points_query)]
-ShortlistId = Annotated[int, Path(ge=1, le=MAX_ID, description="Shortlist id")]
+ShortlistId = Annotated[PlainWhole, Path(ge=1, le=MAX_ID, description="Shortlist id")]
 """A shortlist id in a URL: a whole number that SQLite can store (1 to 2**63 - 1)."""
+
+
+LIST_PAGE_ROWS = 1000
+"""Most rows one answer of a listing API (your measurements, your shortlists) holds."""
+MAX_LIST_OFFSET = 1_000_000
+"""Largest offset a listing API accepts."""
+
+
+def list_page(
+    offset: Annotated[PlainWhole, Query(
+        ge=0, le=MAX_LIST_OFFSET,
+        description=f"Rows to skip (0 to {MAX_LIST_OFFSET}); the answer's next_offset gives "
+        "the next page")] = 0,
+    limit: Annotated[PlainWhole, Query(
+        ge=1, le=LIST_PAGE_ROWS,
+        description=f"Most rows in this answer (1 to {LIST_PAGE_ROWS})")] = LIST_PAGE_ROWS,
+) -> tuple[int, int]:
+    """The (offset, limit) of one page of a listing API."""
+    return offset, limit
+
+
+ListPageDep = Annotated[tuple[int, int], Depends(list_page)]
+
+
+def paged(total: int, offset: int, limit: int) -> dict[str, int | None]:
+    """The paging keys of a listing answer: total, offset and next_offset (None at the end)."""
+    following = offset + limit
+    return {"total": total, "offset": offset,
+            "next_offset": following if following < total else None}

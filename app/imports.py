@@ -23,7 +23,7 @@ import uuid
 from collections.abc import Iterator
 from typing import Any
 
-from sqlalchemy import delete, select, tuple_
+from sqlalchemy import delete, func, select, tuple_
 from sqlalchemy.orm import Session
 
 from app.models import UserMeasurement
@@ -250,9 +250,17 @@ def import_measurements(session: Session, data: bytes) -> dict[str, Any]:
     return {"batch": batch, "imported": len(rows), "replaced": replaced}
 
 
-def measurement_rows(session: Session) -> list[dict[str, Any]]:
-    """Every imported value, by formula and property."""
-    stmt = select(UserMeasurement).order_by(UserMeasurement.formula, UserMeasurement.property)
+def measurement_count(session: Session) -> int:
+    """How many values you imported."""
+    return session.scalar(select(func.count()).select_from(UserMeasurement)) or 0
+
+
+def measurement_rows(session: Session, offset: int = 0,
+                     limit: int | None = None) -> list[dict[str, Any]]:
+    """Imported values by formula and property: every one, or `limit` from `offset` on."""
+    stmt = (select(UserMeasurement)
+            .order_by(UserMeasurement.formula, UserMeasurement.property)
+            .offset(offset).limit(limit))
     return [{"formula": m.formula, "property": m.property, "value": m.value, "unit": m.unit,
              "source": m.source, "batch": m.batch,
              "imported_at": m.imported_at.isoformat() + "Z"} for m in session.scalars(stmt)]

@@ -14,7 +14,9 @@ from __future__ import annotations
 import math
 import re
 from dataclasses import dataclass
-from typing import Any
+from typing import Annotated, Any
+
+from pydantic import BeforeValidator
 
 from screening.errors import echo
 
@@ -80,3 +82,25 @@ def read_number(value: Any, rule: NumberRule) -> float | None:
     if not (math.isfinite(number) and rule.fits(number)):
         raise NumberError(f"{rule.name} must be {rule.accepted()}, not {echo(value)}")
     return number
+
+
+PLAIN_WHOLE = re.compile(r"[0-9]{1,19}")
+"""What a typed whole number (an id, an offset, a count) may look like: ASCII digits only."""
+
+
+def plain_whole(value: Any) -> Any:
+    """Refuse a whole number typed as text unless it is ASCII digits (`1_0`, `１`, `+1`, `0x1`).
+
+    Used before pydantic reads an int from a URL or a form, whose own reading would take `1_0`
+    as 10. Numbers that arrive as JSON numbers pass unchanged (pydantic checks them).
+
+    Raises:
+        ValueError: "must be a whole number, not '…' (digits 0-9 only)".
+    """
+    if isinstance(value, str) and not PLAIN_WHOLE.fullmatch(value.strip()):
+        raise ValueError(f"must be a whole number, not {echo(value)} (digits 0-9 only)")
+    return value
+
+
+PlainWhole = Annotated[int, BeforeValidator(plain_whole)]
+"""An int read from a URL or form with the plain-digits rule of `plain_whole`."""

@@ -86,7 +86,8 @@ def plain_message(error: Mapping[str, Any]) -> str:
     if kind == "json_invalid":
         return "the request body is not valid JSON"
     if kind in ("value_error", "assertion_error") and ctx.get("error") is not None:
-        return f"{label}: {ctx['error']}"
+        said = str(ctx["error"])
+        return f"{label} {said}" if said.startswith("must ") else f"{label}: {said}"
     sentence = EXPECTED.get(kind, lambda c: "is not accepted")(ctx)
     if "input" in error and kind not in ("extra_forbidden", "model_attributes_type"):
         sentence += f", not '{_echo(error['input'])}'"

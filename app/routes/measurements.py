@@ -10,7 +10,7 @@ from fastapi.concurrency import run_in_threadpool
 from fastapi.responses import PlainTextResponse, RedirectResponse, Response
 from starlette.datastructures import UploadFile
 
-from app.deps import SessionDep
+from app.deps import LIST_PAGE_ROWS, ListPageDep, SessionDep, paged
 from app.imports import (
     COLUMNS,
     MAX_BYTES,
@@ -23,8 +23,10 @@ from app.imports import (
     check_type,
     delete_batch,
     import_measurements,
+    measurement_count,
     measurement_rows,
 )
+from app.number_input import PlainWhole
 from app.params import QueryError
 
 router = APIRouter()
@@ -34,7 +36,7 @@ FORM_OVERHEAD = 16_384
 
 Batch = Annotated[str, Path(pattern=r"^[0-9a-f]{1,32}$",
                            description="Import id (hex digits), as listed with the values")]
-Count = Annotated[int | None, Query(ge=0, le=10 * MAX_ROWS)]
+Count = Annotated[PlainWhole | None, Query(ge=0, le=10 * MAX_ROWS)]
 
 ERRORS: dict[int | str, dict[str, Any]] = {
     400: {"description": 'A bad file, as {"detail": "line N, column C: what is wrong"}'},
@@ -80,7 +82,8 @@ async def read_upload(request: Request) -> bytes:
 
 def _page(request: Request, session: Any, *, status: int = 200, **context: Any) -> Response:
     return request.app.state.templates.TemplateResponse(request, "measurements.html", {
-        "rows": measurement_rows(session), "columns": COLUMNS, "units": UNITS,
+        "rows": measurement_rows(session, 0, LIST_PAGE_ROWS), "columns": COLUMNS,
+        "total": measurement_count(session), "units": UNITS,
         "max_bytes": MAX_BYTES, "max_rows": MAX_ROWS, **context,
     }, status_code=status)
 
@@ -127,12 +130,19 @@ def delete_page(session: SessionDep, batch: Batch,
 
 
 @router.get("/api/measurements", tags=["measurements"], summary="Your measured values")
-def list_api(session: SessionDep) -> dict[str, Any]:
-    """Every value you imported (canonical units), with the accepted properties and units."""
+def list_api(session: SessionDep, page: ListPageDep) -> dict[str, Any]:
+    """The values you imported (canonical units), with the accepted properties and units.
+
+    One page of at most 1000 values by formula and property (`offset`, `limit`); `total`
+    counts them all and `next_offset` gives the next page (null on the last).
+    """
+    offset, limit = page
+    rows = measurement_rows(session, offset, limit)
     return {"columns": list(COLUMNS),
             "properties": {p: {"unit": u, "accepted_units": list(f), "range": list(r)}
                            for p, (u, f, r) in UNITS.items()},
-            "measurements": measurement_rows(session)}
+            "measurements": rows,
+            **paged(measurement_count(session), offset, limit)}
 
 
 @router.post("/api/measurements", tags=["measurements"], status_code=201, responses=ERRORS,

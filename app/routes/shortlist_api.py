@@ -14,7 +14,7 @@ from app.candidates import ShortlistView, load_shortlist
 from app.compare import compare_rows
 from app.compare_payload import chart_data, rows_payload
 from app.conditions import Conditions
-from app.deps import SessionDep, ShortlistId
+from app.deps import ListPageDep, SessionDep, ShortlistId, paged
 from app.exports import cells_zip, csv_zip, shortlist_csv, shortlist_json
 from app.params import QueryError, TableQuery
 from app.queries import table_rows
@@ -100,9 +100,15 @@ def _one(session: Any, shortlist_id: int) -> dict[str, Any]:
 
 
 @router.get("", summary="All shortlists")
-def list_shortlists(session: SessionDep) -> dict[str, Any]:
-    """Every shortlist with its note, conditions and number of candidates."""
-    return {"shortlists": store.all_shortlists(session)}
+def list_shortlists(session: SessionDep, page: ListPageDep) -> dict[str, Any]:
+    """Your shortlists with their notes, conditions and numbers of candidates, newest first.
+
+    One page of at most 1000 lists (`offset`, `limit`); `total` counts them all and
+    `next_offset` gives the next page (null on the last).
+    """
+    offset, limit = page
+    lists = store.all_shortlists(session)
+    return {"shortlists": lists[offset:offset + limit], **paged(len(lists), offset, limit)}
 
 
 @router.post("", status_code=201, responses=ERRORS, summary="Create a shortlist")

@@ -150,3 +150,18 @@ def test_values_are_plain_decimal_numbers_only(client, db_path, value: str) -> N
     assert response.status_code == 400, response.text
     assert "must be a number of eV from -1 to 15" in response.json()["detail"]
     assert stored(db_path) == []
+
+
+def test_the_listing_is_paged(client, db_path) -> None:
+    # Bounded cost: one answer holds at most LIST_PAGE_ROWS values; the rest by offset.
+    assert post(client, GOOD).status_code == 201  # four values
+    first = client.get("/api/measurements", params={"limit": 2}).json()
+    assert len(first["measurements"]) == 2
+    assert (first["total"], first["offset"], first["next_offset"]) == (4, 0, 2)
+    rest = client.get("/api/measurements", params={"offset": first["next_offset"]}).json()
+    assert [(m["formula"], m["property"]) for m in rest["measurements"]] == [
+        ("GaAs", "lattice_a"), ("In0.53Ga0.47As", "band_gap")]
+    assert rest["next_offset"] is None
+    for bad in ({"limit": 0}, {"limit": 1001}, {"offset": -1}, {"offset": "1_0"}):
+        answer = client.get("/api/measurements", params=bad)
+        assert answer.status_code == 422 and "\n" not in answer.json()["detail"]

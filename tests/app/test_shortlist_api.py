@@ -90,3 +90,26 @@ def test_compare_marks_the_best_values_by_the_list_conditions(client) -> None:
     assert len(body["chart"]["candidates"]) == 4 and len(body["chart"]["background"]) > 50
     chosen = client.get(url + "/compare", params={"formula": ["CdTe", "GaAs"]}).json()
     assert chosen["formulas"] == ["CdTe", "GaAs"]
+
+
+def test_the_listing_of_shortlists_is_paged(client) -> None:
+    # Bounded cost: one answer holds at most LIST_PAGE_ROWS lists; the rest by offset.
+    for name in ("first", "second", "third"):
+        assert client.post("/api/shortlists", json={"name": name}).status_code == 201
+    page = client.get("/api/shortlists", params={"limit": 2}).json()
+    assert [s["name"] for s in page["shortlists"]] == ["third", "second"]  # newest first
+    assert (page["total"], page["next_offset"]) == (3, 2)
+    rest = client.get("/api/shortlists", params={"offset": 2}).json()
+    assert [s["name"] for s in rest["shortlists"]] == ["first"] and rest["next_offset"] is None
+    assert client.get("/api/shortlists", params={"limit": 5000}).status_code == 422
+
+
+@pytest.mark.parametrize("typed", ["1_0", "\uff11", "+1", "0x1", " 1e1"])
+def test_ids_and_offsets_are_plain_digits(client, typed) -> None:
+    # Issue 10, item 5: plain decimal numbers only ("1_0" used to reach shortlist 10).
+    for url, params in ((f"/api/shortlists/{typed}", {}), ("/api/shortlists", {"offset": typed})):
+        answer = client.get(url, params=params)
+        assert answer.status_code == 422, url
+        detail = answer.json()["detail"]
+        assert "must be a whole number" in detail and "digits 0-9 only" in detail
+        assert "\n" not in detail
