@@ -18,6 +18,7 @@ from app.numbers import (
     round_estimate,
     rounded,
     stated_decimals,
+    terminal,
     thickness_number,
     thickness_text,
 )
@@ -220,7 +221,7 @@ def thickness_shown(c: Candidate) -> str | None:
     h_c = c.layer.get("critical_thickness_nm")
     if h_c is None and not _matched(c):
         return None
-    return thickness_text(math.inf if _matched(c) else h_c, unit=True).replace("\u00a0", " ")
+    return terminal(thickness_text(math.inf if _matched(c) else h_c, unit=True))
 
 
 def thickness(c: Candidate) -> float | None:

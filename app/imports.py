@@ -31,6 +31,7 @@ from app.number_input import NumberError, NumberRule, read_number
 from app.params import QueryError
 from app.text_rules import plain_text
 from app.writes import utc_now, writing
+from screening.errors import echo
 
 MAX_BYTES = 1_000_000
 MAX_ROWS = 5000
@@ -167,7 +168,7 @@ def _formula(raw: str) -> str:
     try:
         return normalise_material(raw.strip())
     except ValueError as exc:  # BondgapInputError and its kind
-        raise ValueError("formula", f"{raw.strip()[:40]!r} is not a compound or alloy the "
+        raise ValueError("formula", f"{echo(raw.strip())} is not a compound or alloy the "
                          f"engine knows: {exc}") from exc
 
 
@@ -272,5 +273,5 @@ def delete_batch(session: Session, batch: str) -> int:
         done = session.execute(delete(UserMeasurement).where(UserMeasurement.batch == batch))
         count = done.rowcount or 0
         if not count:
-            raise BatchNotFound(f"no imported values in batch {batch[:40]!r}")
+            raise BatchNotFound(f"no imported values in batch {echo(batch)}")
     return count

@@ -84,13 +84,25 @@ def shortlist_dict(session: Session, shortlist: Shortlist) -> dict[str, Any]:
     }
 
 
-def all_shortlists(session: Session) -> list[dict[str, Any]]:
-    """Every list (newest change first) with its number of candidates, without the items."""
-    counts = dict(session.execute(
-        select(ShortlistItem.shortlist_id, func.count()).group_by(ShortlistItem.shortlist_id)
-    ).all())
+def shortlist_count(session: Session) -> int:
+    """How many lists there are."""
+    return session.scalar(select(func.count()).select_from(Shortlist)) or 0
+
+
+def all_shortlists(session: Session, offset: int = 0,
+                   limit: int | None = None) -> list[dict[str, Any]]:
+    """The lists, newest change first, with their numbers of candidates (not the items).
+
+    Every list, or `limit` of them from `offset` on (the listing API's page).
+    """
     lists = session.scalars(select(Shortlist).order_by(Shortlist.updated_at.desc(),
-                                                       Shortlist.id.desc()))
+                                                       Shortlist.id.desc())
+                            .offset(offset).limit(limit)).all()
+    counts = dict(session.execute(
+        select(ShortlistItem.shortlist_id, func.count())
+        .where(ShortlistItem.shortlist_id.in_([s.id for s in lists]))
+        .group_by(ShortlistItem.shortlist_id)
+    ).all())
     return [{"id": s.id, "name": s.name, "note": s.note,
              "conditions": conditions_of(s).as_dict(), "count": counts.get(s.id, 0),
              "updated_at": s.updated_at.isoformat() + "Z"} for s in lists]

@@ -20,6 +20,7 @@ from typing import Annotated, Any
 from pydantic import AfterValidator, Strict
 
 from app.params import QueryError
+from screening.errors import echo
 
 BIDI_CONTROLS = frozenset("\u202a\u202b\u202c\u202d\u202e\u2066\u2067\u2068\u2069")
 INVISIBLE = frozenset("\u200b\u2060\ufeff")
@@ -94,7 +95,7 @@ def parse_id(value: Any, what: str) -> int:
     text = str(value or "").strip()
     number = int(text) if text.isascii() and text.isdigit() and len(text) <= 19 else 0
     if not 1 <= number <= MAX_ID:
-        raise QueryError(f"{what} must be a whole number from 1 to {MAX_ID}, not {text[:40]!r}")
+        raise QueryError(f"{what} must be a whole number from 1 to {MAX_ID}, not {echo(text)}")
     return number
 
 

@@ -11,8 +11,7 @@ from __future__ import annotations
 from collections.abc import Callable, Iterable, Mapping
 from typing import Any
 
-ECHO_CHARS = 40
-"""Most characters of a refused value repeated in a message."""
+from screening.errors import echo
 
 LOCATIONS = ("body", "query", "path", "header", "cookie")
 """First parts of a field's location that say where it came from, not what it is."""
@@ -30,11 +29,6 @@ def field_label(loc: Iterable[Any]) -> str:
         return "the request body" if place == "body" else "the request"
     label = f"'{'.'.join(names)}'"
     return label + (f" item {items[-1] + 1}" if items else "")
-
-
-def _echo(value: Any) -> str:
-    text = value if isinstance(value, str) else repr(value)
-    return text if len(text) <= ECHO_CHARS else text[:ECHO_CHARS] + "..."
 
 
 def _limit(ctx: Mapping[str, Any], key: str) -> str:
@@ -90,7 +84,7 @@ def plain_message(error: Mapping[str, Any]) -> str:
         return f"{label} {said}" if said.startswith("must ") else f"{label}: {said}"
     sentence = EXPECTED.get(kind, lambda c: "is not accepted")(ctx)
     if "input" in error and kind not in ("extra_forbidden", "model_attributes_type"):
-        sentence += f", not '{_echo(error['input'])}'"
+        sentence += f", not {echo(error['input'])}"
     return f"{label} {sentence}"
 
 

@@ -107,8 +107,8 @@ def list_shortlists(session: SessionDep, page: ListPageDep) -> dict[str, Any]:
     `next_offset` gives the next page (null on the last).
     """
     offset, limit = page
-    lists = store.all_shortlists(session)
-    return {"shortlists": lists[offset:offset + limit], **paged(len(lists), offset, limit)}
+    return {"shortlists": store.all_shortlists(session, offset, limit),
+            **paged(store.shortlist_count(session), offset, limit)}
 
 
 @router.post("", status_code=201, responses=ERRORS, summary="Create a shortlist")
