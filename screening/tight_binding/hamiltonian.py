@@ -151,26 +151,28 @@ _PHASE_SUM_SIGNS = np.array(
 )
 """Rows give g0, gx, gy, gz as signed sums of the four bond phases."""
 
-# Anion-cation block entries: (row, column, coupling, phase sum, sign), with coupling
-# 0 = Vss, 1 = Vs, 2 = Vxx, 3 = Vxy and phase sum 0 = g0, 1 = gx, 2 = gy, 3 = gz.
-_BLOCK_ENTRIES: tuple[tuple[int, int, int, int, float], ...] = (
-    (0, 0, 0, 0, 1.0),
-    (0, 1, 1, 1, 1.0),
-    (0, 2, 1, 2, 1.0),
-    (0, 3, 1, 3, 1.0),
-    (1, 0, 1, 1, -1.0),
-    (2, 0, 1, 2, -1.0),
-    (3, 0, 1, 3, -1.0),
-    (1, 1, 2, 0, 1.0),
-    (2, 2, 2, 0, 1.0),
-    (3, 3, 2, 0, 1.0),
-    (1, 2, 3, 3, 1.0),
-    (2, 1, 3, 3, 1.0),
-    (1, 3, 3, 2, 1.0),
-    (3, 1, 3, 2, 1.0),
-    (2, 3, 3, 1, 1.0),
-    (3, 2, 3, 1, 1.0),
+# Anion-cation block entries: (anion orbital, cation orbital, coupling, phase sum, sign), with
+# orbitals as indices into the basis, coupling 0 = Vss, 1 = Vs, 2 = Vxx, 3 = Vxy and phase sum
+# 0 = g0, 1 = gx, 2 = gy, 3 = gz: H[anion, cation] = sign * coupling * g.
+BLOCK_ENTRIES: tuple[tuple[int, int, int, int, float], ...] = (
+    (0, 4, 0, 0, 1.0),
+    (0, 5, 1, 1, 1.0),
+    (0, 6, 1, 2, 1.0),
+    (0, 7, 1, 3, 1.0),
+    (1, 4, 1, 1, -1.0),
+    (2, 4, 1, 2, -1.0),
+    (3, 4, 1, 3, -1.0),
+    (1, 5, 2, 0, 1.0),
+    (2, 6, 2, 0, 1.0),
+    (3, 7, 2, 0, 1.0),
+    (1, 6, 3, 3, 1.0),
+    (2, 5, 3, 3, 1.0),
+    (1, 7, 3, 2, 1.0),
+    (3, 5, 3, 2, 1.0),
+    (2, 7, 3, 1, 1.0),
+    (3, 6, 3, 1, 1.0),
 )
+"""The 8 x 8 anion-cation block of the package docstring, one entry per non-zero element."""
 
 
 def check_k(k: ArrayLike) -> NDArray[np.float64]:
@@ -206,37 +208,78 @@ def _onsite(params: TightBindingParameters) -> NDArray[np.float64]:
     return np.stack([ea_s, ea_p, ea_p, ea_p, ec_s, ec_p, ec_p, ec_p], axis=-1)
 
 
-def _build(
+def build_matrices(
     g: NDArray[np.complex128],
     onsite: NDArray[np.float64],
     coupling_table: NDArray[np.float64],
+    entries: tuple[tuple[int, int, int, int, float], ...],
     *,
     upper: bool,
 ) -> NDArray[np.complex128]:
-    """Assemble H for compounds x k-points from phase sums.
+    """Assemble H for compounds x k-points from phase sums (any basis size).
 
     Args:
         g: Phase sums, (nk, 4).
-        onsite: Diagonals, (nc, 8).
-        coupling_table: Columns Vss, Vs, Vxx, Vxy, shape (nc, 4).
-        upper: Also fill the upper triangle (False leaves it zero: enough for
+        onsite: Diagonals, (nc, n); n is the basis size.
+        coupling_table: Couplings, shape (nc, ncoupling), indexed by the entries.
+        entries: (anion orbital, cation orbital, coupling column, phase sum, sign) per
+            non-zero anion-cation element; H[anion, cation] = sign * coupling * g.
+        upper: Also fill the upper triangle (False fills the lower one only: enough for
             ``eigvalsh(..., UPLO="L")``).
 
     Returns:
-        Array (nc, nk, 8, 8).
+        Array (nc, nk, n, n).
     """
-    nc, nk = onsite.shape[0], g.shape[0]
-    h = np.zeros((nc, nk, N_BANDS, N_BANDS), dtype=np.complex128)
+    nc, n = onsite.shape
+    nk = g.shape[0]
+    h = np.zeros((nc, nk, n, n), dtype=np.complex128)
     g_conj = np.conj(g)
-    for row, col, t, m, sign in _BLOCK_ENTRIES:
+    for anion, cation, t, m, sign in entries:
         v = (sign * coupling_table[:, t])[:, None]
-        # lower triangle: H[cation col, anion row] = conj(B[row, col])
-        h[:, :, 4 + col, row] = v * g_conj[None, :, m]
-        if upper:
-            h[:, :, row, 4 + col] = v * g[None, :, m]
-    diag = np.arange(N_BANDS)
+        value, value_conj = v * g[None, :, m], v * g_conj[None, :, m]
+        # H[anion, cation] = value; its Hermitian partner H[cation, anion] = conj(value)
+        if cation > anion:
+            h[:, :, cation, anion] = value_conj
+            if upper:
+                h[:, :, anion, cation] = value
+        else:
+            h[:, :, anion, cation] = value
+            if upper:
+                h[:, :, cation, anion] = value_conj
+    diag = np.arange(n)
     h[:, :, diag, diag] = onsite[:, None, :]
     return h
+
+
+def eigenvalues_in_batches(
+    k: ArrayLike,
+    onsite: NDArray[np.float64],
+    coupling_table: NDArray[np.float64],
+    entries: tuple[tuple[int, int, int, int, float], ...],
+    chunk: int,
+) -> NDArray[np.float64]:
+    """Sorted eigenvalues (nc, nk, n) of the matrices of :func:`build_matrices`, in batches.
+
+    Raises:
+        BondgapInputError: If ``chunk`` < 1 or the k-points are malformed.
+    """
+    if chunk < 1:
+        raise BondgapInputError(f"chunk must be >= 1, got {chunk}")
+    g_all = phase_sums(k)
+    nc, n = onsite.shape
+    nk = g_all.shape[0]
+    out = np.empty((nc, nk, n), dtype=np.float64)
+    c_step = min(nc, chunk)
+    k_step = max(1, chunk // c_step)
+    for k0 in range(0, nk, k_step):
+        g = g_all[k0 : k0 + k_step]
+        for c0 in range(0, nc, c_step):
+            h = build_matrices(
+                g, onsite[c0 : c0 + c_step], coupling_table[c0 : c0 + c_step], entries,
+                upper=False,
+            )
+            out[c0 : c0 + c_step, k0 : k0 + k_step] = np.linalg.eigvalsh(h, UPLO="L")
+    return out
 
 
 def _coupling_table(params: TightBindingParameters, eta: HarrisonEta) -> NDArray[np.float64]:
@@ -261,7 +304,9 @@ def hamiltonian(
         Complex array (ncompound, nk, 8, 8) in eV, basis order s_a, px_a, py_a, pz_a, s_c,
         px_c, py_c, pz_c.
     """
-    return _build(phase_sums(k), _onsite(params), _coupling_table(params, eta), upper=True)
+    return build_matrices(
+        phase_sums(k), _onsite(params), _coupling_table(params, eta), BLOCK_ENTRIES, upper=True
+    )
 
 
 def band_energies(
@@ -289,18 +334,6 @@ def band_energies(
     Raises:
         BondgapInputError: If ``chunk`` < 1 or the k-points are malformed.
     """
-    if chunk < 1:
-        raise BondgapInputError(f"chunk must be >= 1, got {chunk}")
-    g_all = phase_sums(k)
-    onsite = _onsite(params)
-    table = _coupling_table(params, eta)
-    nc, nk = onsite.shape[0], g_all.shape[0]
-    out = np.empty((nc, nk, N_BANDS), dtype=np.float64)
-    c_step = min(nc, chunk)
-    k_step = max(1, chunk // c_step)
-    for k0 in range(0, nk, k_step):
-        g = g_all[k0 : k0 + k_step]
-        for c0 in range(0, nc, c_step):
-            h = _build(g, onsite[c0 : c0 + c_step], table[c0 : c0 + c_step], upper=False)
-            out[c0 : c0 + c_step, k0 : k0 + k_step] = np.linalg.eigvalsh(h, UPLO="L")
-    return out
+    return eigenvalues_in_batches(
+        k, _onsite(params), _coupling_table(params, eta), BLOCK_ENTRIES, chunk
+    )
