@@ -35,10 +35,11 @@ Known limits
 * The conduction bands are poor away from Gamma: with four orbitals per atom and nearest
   neighbours only, the lowest conduction level at X lies far too high, so the indirect gaps
   come out wrong (Si, for instance, gets its conduction minimum at L instead of near X).
-  An extra s* orbital (P. Vogl, H. P. Hjalmarson and J. D. Dow, J. Phys. Chem. Solids 44,
-  365 (1983)) or more distant neighbours are needed for that. The X and L gaps and the
-  direct/indirect verdict here are the model's, not the crystal's.
-* No spin-orbit coupling (no split-off band; the Gamma_15 valence top stays triply degenerate).
+  The sp3s* model (``sstar.py``: an extra s* orbital per atom, P. Vogl, H. P. Hjalmarson and
+  J. D. Dow, J. Phys. Chem. Solids 44, 365 (1983)) brings X down; ``valleys.py`` gives the
+  Gamma, X and L valleys of either model.
+* No spin-orbit coupling in H (no split-off band; the Gamma_15 valence top stays triply
+  degenerate); ``spin_orbit.py`` gives Delta0 from atomic splittings to first order.
 * No d states (no shallow cation d bands in the Ga, In, Zn, Cd and Hg compounds; no d
   admixture in the conduction band).
 * Absolute gaps follow the term values used; with universal couplings they rank compounds
@@ -74,6 +75,20 @@ from screening.tight_binding.hamiltonian import (
     hamiltonian,
     phase_sums,
 )
+from screening.tight_binding.spin_orbit import (
+    gamma_gap_with_spin_orbit_eV,
+    valence_spin_orbit_eV,
+    valence_top_p_weights,
+)
+from screening.tight_binding.sstar import (
+    N_BANDS_SSTAR,
+    SSTAR_SI_VHD,
+    SStarModel,
+    band_energies_sstar,
+    hamiltonian_sstar,
+    sstar_levels_eV,
+)
+from screening.tight_binding.valleys import ValleyGaps, valleys, valleys_from_elements
 
 __all__ = [
     "DEFAULT_CHUNK", "DIRECT_TOLERANCE_EV", "ETA_HARRISON_1981", "FCC_RECIPROCAL_2PI_OVER_A",
@@ -81,4 +96,7 @@ __all__ = [
     "Couplings", "GammaLevels", "HarrisonEta", "TightBindingParameters", "band_energies",
     "band_energies_symmetric", "couplings", "gamma_closed_form", "gaps", "hamiltonian",
     "high_symmetry_path", "irreducible_k", "parameters_from_elements", "phase_sums",
+    "N_BANDS_SSTAR", "SSTAR_SI_VHD", "SStarModel", "ValleyGaps", "band_energies_sstar",
+    "gamma_gap_with_spin_orbit_eV", "hamiltonian_sstar", "sstar_levels_eV",
+    "valence_spin_orbit_eV", "valence_top_p_weights", "valleys", "valleys_from_elements",
 ]
