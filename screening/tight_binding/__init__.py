@@ -83,6 +83,7 @@ from screening.tight_binding.spin_orbit import (
 from screening.tight_binding.sstar import (
     N_BANDS_SSTAR,
     SSTAR_SI_VHD,
+    SSTAR_SI_VHD_NEIGHBOUR,
     SStarModel,
     band_energies_sstar,
     hamiltonian_sstar,
@@ -96,7 +97,7 @@ __all__ = [
     "Couplings", "GammaLevels", "HarrisonEta", "TightBindingParameters", "band_energies",
     "band_energies_symmetric", "couplings", "gamma_closed_form", "gaps", "hamiltonian",
     "high_symmetry_path", "irreducible_k", "parameters_from_elements", "phase_sums",
-    "N_BANDS_SSTAR", "SSTAR_SI_VHD", "SStarModel", "ValleyGaps", "band_energies_sstar",
-    "gamma_gap_with_spin_orbit_eV", "hamiltonian_sstar", "sstar_levels_eV",
+    "N_BANDS_SSTAR", "SSTAR_SI_VHD", "SSTAR_SI_VHD_NEIGHBOUR", "SStarModel", "ValleyGaps",
+    "band_energies_sstar", "gamma_gap_with_spin_orbit_eV", "hamiltonian_sstar", "sstar_levels_eV",
     "valence_spin_orbit_eV", "valence_top_p_weights", "valleys", "valleys_from_elements",
 ]

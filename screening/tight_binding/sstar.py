@@ -31,6 +31,14 @@ independent check. Nothing was tuned to any other compound. VHD also give chemic
 for the diagonal energies (differences of atomic term values scaled by beta_s and beta_p, from
 memory); we do not use them: the term values enter unscaled, as in the sp3 model.
 
+A variant (``neighbour_reference=True``, :data:`SSTAR_SI_VHD_NEIGHBOUR`) places each s* above the
+p level of the bond partner it couples to, so that the s*-p energy denominator across each bond
+is the universal quantity (the two rules coincide for elements). It was tried after the
+default rule was seen to put the X valley of the polar compounds too low; VHD's own GaAs
+diagonal energies (from memory: E(s*,a) - E(p,c) = 4.92 eV, E(s*,c) - E(p,a) = 5.70 eV, against
+4.97 eV in Si) are closer to it. It raises the III-V X valleys by 0.4-0.7 eV but changes no
+valley order of the five checked crystals; it is offered, not the default.
+
 Known limits: the Gamma conduction level is the sp3 model's s-antibonding state, which the
 s* does not touch; with unscaled LDA term values it lies too high for Ge and the Ga, In
 compounds (GaAs and Ge get L below Gamma wrong way round; see the tests).
@@ -38,7 +46,7 @@ compounds (GaAs and Ge get L below Gamma wrong way round; see the tests).
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import Final
 
 import numpy as np
@@ -72,14 +80,18 @@ class SStarModel:
     Attributes:
         eta: sp3 couplings eta_ss_sigma, eta_sp_sigma, eta_pp_sigma, eta_pp_pi.
         eta_sstar_p_sigma: eta of V_s*p_sigma.
-        kappa_sstar: s* level above the atom's p term value, in units of hbar^2/(m d^2).
+        kappa_sstar: s* level above the reference p term value, in units of hbar^2/(m d^2).
         source: Where the constants come from.
+        neighbour_reference: False (default): each atom's s* sits above its own p level.
+            True: above the p level of the other atom of the bond, the p level it couples to
+            (a variant; see the module docstring).
     """
 
     eta: UniversalEta
     eta_sstar_p_sigma: float
     kappa_sstar: float
     source: str
+    neighbour_reference: bool = False
 
 
 def _from_vhd_si(v_ss: float, v_xx: float, v_xy: float, v_sp: float, v_sstar_p: float,
@@ -112,11 +124,17 @@ SSTAR_SI_VHD: Final[SStarModel] = _from_vhd_si(
 eta_pp_pi = -0.519, eta_s*p = 1.689, kappa_s* = 3.607 (VHD silicon, see the module docstring)."""
 
 
+SSTAR_SI_VHD_NEIGHBOUR: Final[SStarModel] = replace(SSTAR_SI_VHD, neighbour_reference=True)
+"""The same constants, each s* above the bond partner's p level."""
+
+
 def sstar_levels_eV(
     params: TightBindingParameters, model: SStarModel = SSTAR_SI_VHD
 ) -> tuple[NDArray[np.float64], NDArray[np.float64]]:
     """Return the s* on-site energies (anion, cation) per compound, eV."""
     offset = model.kappa_sstar * HBAR2_OVER_M_EV_ANGSTROM2 / params.bond_length_angstrom**2
+    if model.neighbour_reference:
+        return params.eps_p_cation_eV + offset, params.eps_p_anion_eV + offset
     return params.eps_p_anion_eV + offset, params.eps_p_cation_eV + offset
 
 

@@ -132,8 +132,7 @@ def valleys_from_elements(
     cations: list[str] | tuple[str, ...],
     anions: list[str] | tuple[str, ...],
     bond_length_angstrom: NDArray[np.float64] | float,
-    *,
-    with_sstar: bool = True,
+    model: SStarModel | None = SSTAR_SI_VHD,
 ) -> ValleyGaps:
     """Valleys from element symbols, with the engine's atomic term values.
 
@@ -141,11 +140,11 @@ def valleys_from_elements(
         cations: Cation symbols, one per compound (for an element, the element itself).
         anions: Anion symbols, same length.
         bond_length_angstrom: Nearest-neighbour distances (angstrom), scalar or per compound.
-        with_sstar: The sp3s* model with :data:`SSTAR_SI_VHD` (True) or the sp3 model (False).
+        model: sp3s* constants (default :data:`SSTAR_SI_VHD`); None for the sp3 model.
 
     Raises:
         BondgapInputError: If the symbol lists differ in length.
         UnknownElementError: A symbol that is not an element of Z = 1 to 86.
     """
     params = parameters_from_elements(cations, anions, bond_length_angstrom)
-    return valleys(params, SSTAR_SI_VHD if with_sstar else None)
+    return valleys(params, model)
