@@ -59,31 +59,77 @@ def check_temperature(temperature_K: float) -> float:
     return value
 
 
+ESTIMATE_ROUTE = ("estimate: Gaussian process with a linear mean over the band structure's "
+                  "physical features, calibrated by nested leave-one-out")
+"""How an estimated gap is made (`screening.gaps`)."""
+
+KIND_ROUTE = "estimate: logistic classifier over the band structure's valley order"
+"""How an estimated gap kind is made (`screening.gap_kind`)."""
+
+
 def _band_gap(table: CatalogueTable, at: GapsAt, i: int) -> dict[str, Any]:
     model = gap_model()
     measured = table.measured[i]
     kind = measured.get("gap_kind")
-    direct = bool(model.tight_binding.direct[i])
+    semimetal = bool(at.semimetal[i])
+    shown_kind = str(kind.value) if kind else model.kind_estimate[i]
+    if semimetal:
+        shown_kind = "semimetal"
+    short, long = _float(at.wavelength_short_nm[i]), _float(at.wavelength_long_nm[i])
     return {
         "value_eV": _float(at.value_eV[i]),
         "value_source": "measured" if at.value_is_measured[i] else "estimate",
+        "route": "measured" if at.value_is_measured[i] else ESTIMATE_ROUTE,
         "estimate_eV": _float(at.estimate_eV[i]),
         "uncertainty_eV": _float(at.uncertainty_eV[i]),
         "cross_validated_eV": _float(at.cross_validated_eV[i]),
+        "cross_validated_uncertainty_eV": _float(model.cross_validated_uncertainty_eV[i]),
         "measured_eV": _float(at.measured_eV[i]),
         "measured_300K_eV": _float(model.measured_300K_eV[i]),
-        "kind": str(kind.value) if kind else ("direct" if direct else "indirect"),
-        "kind_source": "measured" if kind else "tight-binding model",
+        "semimetal": semimetal,
+        "may_be_semimetal": bool(at.may_be_semimetal[i]),
+        "kind": shown_kind,
+        "kind_source": "measured" if kind else KIND_ROUTE,
+        "kind_estimate": model.kind_estimate[i],
+        "indirect_probability": _float(model.indirect_probability[i]),
         "temperature_K": at.temperature_K,
         "temperature_law": at.temperature_law_source[i],
         "temperature_law_assumed": bool(at.temperature_law_assumed[i]),
         "wavelength_nm": _float(at.wavelength_nm[i]),
-        "model": {
-            "loo_mae_eV": model.loo_mae_eV,
-            "loo_max_eV": model.loo_max_eV,
-            "n_measured": int(model.fit.targets.size),
-        },
+        "wavelength_range_nm": None if short is None else [short, long],
+        "model": _model_summary(),
     }
+
+
+def _model_summary() -> dict[str, Any]:
+    model = gap_model()
+    correct, total = model.kind_accuracy()
+    return {
+        "loo_mae_eV": model.loo_mae_eV,
+        "loo_max_eV": model.loo_max_eV,
+        "n_measured": model.n_measured,
+        "within_one_uncertainty": model.coverage(1.0),
+        "within_two_uncertainties": model.coverage(2.0),
+        "kind_correct": correct,
+        "kind_total": total,
+        "validation": "nested leave-one-out over every measured gap",
+    }
+
+
+def _spin_orbit(i: int) -> dict[str, Any]:
+    model = gap_model()
+    return {
+        "splitting_eV": _float(model.features.spin_orbit_eV[i]),
+        "route": "model",
+        "source": SPIN_ORBIT_SOURCE,
+    }
+
+
+SPIN_ORBIT_SOURCE = (
+    "atomic p-level spin-orbit splittings from the atom solver, weighted by the anion and "
+    "cation shares of the valence-band top (bond-orbital weighting: W. A. Harrison, "
+    "Electronic Structure and the Properties of Solids (1980))")
+"""Where the valence-band spin-orbit splitting comes from."""
 
 
 def _tight_binding(i: int) -> dict[str, Any]:
@@ -158,6 +204,7 @@ def _report(table: CatalogueTable, i: int, at: GapsAt) -> dict[str, Any]:
             "antibonding_eV": _float(bonds.antibonding_eV[i]),
         },
         "band_gap": _band_gap(table, at, i),
+        "spin_orbit": _spin_orbit(i),
         "tight_binding": _tight_binding(i),
         "coordination": {
             "predicted": table.coordination_predicted[i],
