@@ -20,7 +20,13 @@ of bond length d: a power law through the spectroscopic Eg of diamond and Si (D 
 shell), where C = 0 for an element. `homopolar_law_of_elements` draws it through the same
 eps_inf data the spectroscopic route then reads, so C, Si, Ge and alpha-Sn come out with C = 0
 (Van Vechten's 39.74 d^-2.48, drawn through the eps_inf of 1969, is kept as
-`VAN_VECHTEN_1969` for comparison: with eps_inf(Si) = 11.7 it leaves Si a spurious C = 0.78 eV).
+`VAN_VECHTEN_1969` for comparison: its Eh(Si) = 4.77 eV is the Eg of eps_inf(Si) = 12.0 here, so
+with the measured 11.7 it left Si a spurious C = 0.78 eV, fi = 0.026).
+
+The spectroscopic fi of AlP, AlAs, AlSb (0.38, 0.44, 0.43) exceeds Phillips' (0.307, 0.274,
+0.250, from memory) through the measured eps_inf (7.54, 8.16, 10.24), not through D: even D = 1
+(no d contribution, the least Van Vechten's definition allows) leaves AlAs above GaAs, and
+Phillips' AlP (D = 1 in any definition) needs eps_inf = 8.35.
 
 Calibrations of ours (constants in `PhillipsCalibration`):
 * the d-electron factor D: D of a row fixed by that row's group-IV element (Ge, alpha-Sn)
