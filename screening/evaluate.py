@@ -23,7 +23,7 @@ from screening.elements import VALENCE, has_filled_inner_d, period
 from screening.formula import Compound
 from screening.harrison import BondOrbitals, bond_orbitals
 from screening.lattice_estimate import LatticeEstimate, estimate_lattice
-from screening.phillips import PhillipsCalibration, PhillipsResult
+from screening.phillips import HomopolarLaw, PhillipsCalibration, PhillipsResult
 from screening.radii import RadiusFit, fit_radii
 from screening.reference import Measured, measured_compounds
 
@@ -45,6 +45,7 @@ class CatalogueTable:
     bond_length_used_angstrom: NDArray[np.float64]
     volume_per_pair_angstrom3: NDArray[np.float64]
     eps_inf: NDArray[np.float64]
+    homopolar_law: HomopolarLaw
     spectroscopic: PhillipsResult
     predictive: PhillipsResult
     bonds: BondOrbitals
@@ -92,14 +93,29 @@ def _observed_coordination(data: dict[str, Measured], ambient: str | None) -> st
     return None
 
 
+def _element_crystal(data: dict[str, Measured]) -> tuple[float, float]:
+    """(bond length in A, volume per atom pair in A^3) of an element's measured crystal."""
+    geometry, a, c = _measured_geometry(data)
+    return (float(structure.bond_length(geometry, a, c)),
+            float(structure.volume_per_pair(geometry, a, c)))
+
+
+def homopolar_law(measured: dict[str, dict[str, Measured]]) -> HomopolarLaw:
+    """Phillips' Eh(d) through diamond and Si, from their measured eps_inf (see `phillips`)."""
+    crystals = [_element_crystal(measured[symbol]) for symbol in ("C", "Si")]
+    return phillips.homopolar_law_of_elements(
+        [d for d, _ in crystals], [v for _, v in crystals],
+        [_number(measured[symbol], "eps_inf") for symbol in ("C", "Si")])
+
+
 def d_factors(measured: dict[str, dict[str, Measured]], compounds: tuple[Compound, ...]
                ) -> NDArray[np.float64]:
     """Van Vechten's d-electron factor D per compound (calibration, see `phillips`)."""
+    law = homopolar_law(measured)
+
     def element_d(symbol: str) -> float:
-        data = measured[symbol]
-        geometry, a, c = _measured_geometry(data)
-        d = float(structure.bond_length(geometry, a, c))
-        return phillips.d_factor_of_element(_number(data, "eps_inf"), d)
+        d, _ = _element_crystal(measured[symbol])
+        return phillips.d_factor_of_element(_number(measured[symbol], "eps_inf"), d, law)
 
     d4, d5 = element_d("Ge"), element_d("Sn")
     def atom_d(symbol: str) -> float:
@@ -117,8 +133,7 @@ def period_radii(measured: dict[str, dict[str, Measured]]) -> dict[int, float]:
     """Covalent radius of each period: half the bond length of its group-IV crystal (A)."""
     radii = {}
     for row, symbol in ((2, "C"), (3, "Si"), (4, "Ge"), (5, "Sn")):
-        geometry, a, c = _measured_geometry(measured[symbol])
-        radii[row] = float(structure.bond_length(geometry, a, c)) / 2.0
+        radii[row] = _element_crystal(measured[symbol])[0] / 2.0
     radii[6] = CALIBRATION.period_radius_pb_angstrom
     return radii
 
@@ -151,13 +166,15 @@ def catalogue_table() -> CatalogueTable:
     volume = np.where(known, volume_measured, structure.tetrahedral_volume_per_pair(d_used))
     eps_inf = np.array([_number(m, "eps_inf") for m in measured])
 
-    spectro = phillips.spectroscopic(d_used, volume, eps_inf, d_factors(reference, compounds))
+    law = homopolar_law(reference)
+    spectro = phillips.spectroscopic(d_used, volume, eps_inf, d_factors(reference, compounds),
+                                     law)
     row_radius = period_radii(reference)
     predictive = phillips.predictive(
         d_used, volume,
         [VALENCE[x] for x in cations], [VALENCE[x] for x in anions],
         [row_radius[period(x)] for x in cations], [row_radius[period(x)] for x in anions],
-        CALIBRATION.screening_prefactor_b,
+        CALIBRATION.screening_prefactor_b, law,
     )
     s_cat, p_cat = term_values(cations)
     s_an, p_an = term_values(anions)
@@ -181,6 +198,7 @@ def catalogue_table() -> CatalogueTable:
         bond_length_used_angstrom=d_used,
         volume_per_pair_angstrom3=volume,
         eps_inf=eps_inf,
+        homopolar_law=law,
         spectroscopic=spectro,
         predictive=predictive,
         bonds=bonds,

@@ -15,6 +15,19 @@ References: J. C. Phillips, Phys. Rev. Lett. 20, 550 (1968); J. A. Van Vechten, 
 182, 891 (1969) and 187, 1007 (1969); J. C. Phillips, Rev. Mod. Phys. 42, 317 (1970);
 D. R. Penn, Phys. Rev. 128, 2093 (1962). Energies in eV, lengths in angstrom.
 
+The homopolar gap Eh(d) is, by Phillips' definition, the average gap of the homopolar crystal
+of bond length d: a power law through the spectroscopic Eg of diamond and Si (D = 1, no d
+shell), where C = 0 for an element. `homopolar_law_of_elements` draws it through the same
+eps_inf data the spectroscopic route then reads, so C, Si, Ge and alpha-Sn come out with C = 0
+(Van Vechten's 39.74 d^-2.48, drawn through the eps_inf of 1969, is kept as
+`VAN_VECHTEN_1969` for comparison: its Eh(Si) = 4.77 eV is the Eg of eps_inf(Si) = 12.0 here, so
+with the measured 11.7 it left Si a spurious C = 0.78 eV, fi = 0.026).
+
+The spectroscopic fi of AlP, AlAs, AlSb (0.38, 0.44, 0.43) exceeds Phillips' (0.307, 0.274,
+0.250, from memory) through the measured eps_inf (7.54, 8.16, 10.24), not through D: even D = 1
+(no d contribution, the least Van Vechten's definition allows) leaves AlAs above GaAs, and
+Phillips' AlP (D = 1 in any definition) needs eps_inf = 8.35.
+
 Calibrations of ours (constants in `PhillipsCalibration`):
 * the d-electron factor D: D of a row fixed by that row's group-IV element (Ge, alpha-Sn)
   so that its eps_inf is reproduced with Eg = Eh; D = 1 for atoms without a shallow filled d
@@ -36,10 +49,8 @@ from screening.constants import BOHR_ANGSTROM, E2_EV_ANGSTROM
 HBAR2_OVER_M_EXACT: float = 7.619964
 """hbar^2/m_e in eV A^2 (CODATA 2018), for the plasma and Fermi energies."""
 
-HOMOPOLAR_PREFACTOR_EV: float = 39.74
-"""Eh = 39.74 d^-2.48 eV with d in angstrom (Van Vechten 1969; Phillips 1970)."""
-
-HOMOPOLAR_EXPONENT: float = 2.48
+ROUNDING_RELATIVE: float = 1e-12
+"""Eg^2 - Eh^2 below this fraction of Eh^2 (C < 1e-6 Eh, fi < 1e-12) is rounding, so C = 0."""
 
 CRITICAL_IONICITY: float = 0.785
 """Phillips' critical ionicity: fourfold below, sixfold above (Rev. Mod. Phys. 42, 317)."""
@@ -69,9 +80,26 @@ class PhillipsResult:
     ionicity: NDArray[np.float64]
 
 
-def homopolar_gap(d_angstrom: ArrayLike) -> NDArray[np.float64]:
-    """Homopolar gap Eh in eV for bond length d in angstrom."""
-    return HOMOPOLAR_PREFACTOR_EV * np.asarray(d_angstrom, dtype=float) ** -HOMOPOLAR_EXPONENT
+@dataclass(frozen=True)
+class HomopolarLaw:
+    """Eh = prefactor d^-exponent: the homopolar gap in eV for bond length d in angstrom."""
+
+    prefactor_eV: float
+    exponent: float
+
+    def gap(self, d_angstrom: ArrayLike) -> NDArray[np.float64]:
+        """Homopolar gap Eh in eV for bond length d in angstrom."""
+        return self.prefactor_eV * np.asarray(d_angstrom, dtype=float) ** -self.exponent
+
+
+VAN_VECHTEN_1969 = HomopolarLaw(prefactor_eV=39.74, exponent=2.48)
+"""Eh = 39.74 d^-2.48 eV (Van Vechten, Phys. Rev. 182, 891 (1969); Phillips 1970; from memory)."""
+
+
+def homopolar_gap(d_angstrom: ArrayLike, law: HomopolarLaw = VAN_VECHTEN_1969
+                  ) -> NDArray[np.float64]:
+    """Homopolar gap Eh in eV for bond length d in angstrom (published law unless given)."""
+    return law.gap(d_angstrom)
 
 
 def electron_gas(volume_per_pair_angstrom3: ArrayLike) -> tuple[NDArray[np.float64], ...]:
@@ -131,9 +159,29 @@ def compound_d_factor(
     return d_av - (d_av - 1.0) * z * dz2
 
 
-def d_factor_of_element(eps_inf: float, d_angstrom: float) -> float:
+def homopolar_law_of_elements(
+    d_angstrom: ArrayLike, volume_per_pair_angstrom3: ArrayLike, eps_inf: ArrayLike
+) -> HomopolarLaw:
+    """Eh(d) through the average gaps of two homopolar crystals without a d shell (D = 1).
+
+    Phillips' definition of Eh (Rev. Mod. Phys. 42, 317 (1970)): the average gap of the
+    homopolar crystal, C = 0, drawn as a power law through diamond and Si.
+
+    Args:
+        d_angstrom: Bond lengths of the two crystals (diamond, Si), angstrom.
+        volume_per_pair_angstrom3: Their volumes per atom pair, cubic angstrom.
+        eps_inf: Their measured high-frequency dielectric constants.
+    """
+    d = np.asarray(d_angstrom, dtype=float)
+    plasma, fermi, _, _ = electron_gas(volume_per_pair_angstrom3)
+    eg = spectroscopic_average_gap(eps_inf, plasma, fermi, 1.0)
+    exponent = float(np.log(eg[0] / eg[1]) / np.log(d[1] / d[0]))
+    return HomopolarLaw(prefactor_eV=float(eg[1] * d[1] ** exponent), exponent=exponent)
+
+
+def d_factor_of_element(eps_inf: float, d_angstrom: float, law: HomopolarLaw) -> float:
     """D that reproduces a group-IV element's eps_inf with Eg = Eh (C = 0)."""
-    eh = float(homopolar_gap(d_angstrom))
+    eh = float(law.gap(d_angstrom))
     a = d_angstrom * 4.0 / np.sqrt(3.0)
     plasma, fermi, _, _ = electron_gas(a**3 / 4.0)
     return float((eps_inf - 1.0) * eh**2 / (plasma**2 * penn_factor(eh, fermi)))
@@ -141,13 +189,19 @@ def d_factor_of_element(eps_inf: float, d_angstrom: float) -> float:
 
 def spectroscopic(
     d_angstrom: ArrayLike, volume_per_pair_angstrom3: ArrayLike, eps_inf: ArrayLike,
-    d_factor: ArrayLike,
+    d_factor: ArrayLike, law: HomopolarLaw,
 ) -> PhillipsResult:
-    """The spectroscopic route: Eg from eps_inf, C = sqrt(Eg^2 - Eh^2) (0 if Eg < Eh)."""
-    eh = homopolar_gap(d_angstrom)
+    """The spectroscopic route: Eg from eps_inf, C = sqrt(Eg^2 - Eh^2) (0 if Eg <= Eh).
+
+    C = 0 also where Eg^2 - Eh^2 is rounding (`ROUNDING_RELATIVE`): an element's Eg and Eh
+    come from the same eps_inf through different arithmetic.
+    """
+    eh = law.gap(d_angstrom)
     plasma, fermi, _, _ = electron_gas(volume_per_pair_angstrom3)
     eg = spectroscopic_average_gap(eps_inf, plasma, fermi, d_factor)
-    c = np.sqrt(np.clip(eg**2 - eh**2, 0.0, None))
+    excess = eg**2 - eh**2
+    heteropolar = np.sqrt(np.where(excess > ROUNDING_RELATIVE * eh**2, excess, 0.0))
+    c = np.where(np.isnan(excess), np.nan, heteropolar)
     eg = np.sqrt(eh**2 + c**2)
     eh = np.where(np.isnan(c), np.nan, eh)
     return PhillipsResult(eh, c, eg, c**2 / eg**2)
@@ -157,11 +211,11 @@ def predictive(
     d_angstrom: ArrayLike, volume_per_pair_angstrom3: ArrayLike,
     valence_cation: ArrayLike, valence_anion: ArrayLike,
     radius_cation_angstrom: ArrayLike, radius_anion_angstrom: ArrayLike,
-    prefactor_b: float,
+    prefactor_b: float, law: HomopolarLaw,
 ) -> PhillipsResult:
     """The predictive route: C = b e^2 |Z_A/r_A - Z_B/r_B| exp(-k_s d/2)."""
     d = np.asarray(d_angstrom, dtype=float)
-    eh = homopolar_gap(d)
+    eh = law.gap(d)
     _, _, _, k_s = electron_gas(volume_per_pair_angstrom3)
     za, zb = np.asarray(valence_cation, float), np.asarray(valence_anion, float)
     ra, rb = np.asarray(radius_cation_angstrom, float), np.asarray(radius_anion_angstrom, float)

@@ -47,7 +47,9 @@ PVV = (
 )
 BOND_ORBITAL = "W. A. Harrison, Phys. Rev. B 24, 5835 (1981)"
 RADII = "tetrahedral radii: calibration of ours; Pauling (1960) radii as prior"
-EH_ROUTE = "Eh = 39.74 d^-2.48 (d in Å) from the bond length the models used"
+EH_ROUTE = ("Eh = A d^-s (d in Å) through the average gaps of diamond and Si from their "
+            "measured eps_inf (Van Vechten 1969 had 39.74 d^-2.48), at the bond length the "
+            "models used")
 
 QUANTITIES: Final[tuple[Quantity, ...]] = (
     Quantity("lattice_constant_angstrom", "Lattice constant a", "Å", "measured",

@@ -116,9 +116,11 @@ def vca_bonds(system: AlloySystem, fractions: ArrayLike) -> VcaResult:
         volume = structure.volume_per_pair("rocksalt", 2.0 * d, np.nan)
     else:
         volume = structure.tetrahedral_volume_per_pair(d)
-    spectroscopic = phillips.spectroscopic(d, volume, averaged["eps_inf"], averaged["d_factor"])
+    law = catalogue_table().homopolar_law
+    spectroscopic = phillips.spectroscopic(d, volume, averaged["eps_inf"], averaged["d_factor"],
+                                           law)
     predictive = phillips.predictive(d, volume, averaged["zr_cation"], averaged["zr_anion"],
-                                     1.0, 1.0, CALIBRATION.screening_prefactor_b)
+                                     1.0, 1.0, CALIBRATION.screening_prefactor_b, law)
     bonds = bond_orbitals(averaged["s_cation"], averaged["p_cation"], averaged["s_anion"],
                           averaged["p_anion"], d)
     return VcaResult(system, d, spectroscopic, predictive, bonds, averaged["eps_inf"])

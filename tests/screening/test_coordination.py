@@ -13,11 +13,11 @@ from screening.coordination import predicted_coordination
 from screening.evaluate import catalogue_table
 
 PREDICTIVE_ROUTE_MISSES = {
-    "MgS", "MgSe", "CaS", "CaSe", "CaTe", "SrS", "SrSe", "SrTe", "BaSe", "BaTe",
+    "MgS", "MgSe", "CaS", "CaSe", "CaTe", "SrS", "SrSe", "SrTe", "BaS", "BaSe", "BaTe",
 }
 
 
-PREDICTIVE_ROUTE_BORDERLINE = {"CaO", "BaS", "CdO"}
+PREDICTIVE_ROUTE_BORDERLINE = {"CaO", "CdO"}
 """Observed sixfold, predicted borderline (within the predictive route's band around 0.785)."""
 
 
@@ -43,11 +43,12 @@ def test_spectroscopic_route_classifies_every_measured_compound() -> None:
 
 
 def test_predictive_route_counts_right_wrong_and_borderline_apart() -> None:
-    # README: "predictive route: 23 compounds, 10 right, 10 wrong (alkaline-earth
-    # chalcogenides), 3 borderline (CaO, BaS, CdO, observed sixfold)". Borderline is not
-    # counted as right.
+    # Measured here: "predictive route: 23 compounds, 10 right, 11 wrong (alkaline-earth
+    # chalcogenides), 2 borderline (CaO, CdO, observed sixfold)". Borderline is not counted as
+    # right. (BaS was borderline with Van Vechten's published Eh law; the law through our
+    # diamond and Si raises its Eh by 2 % and moves it from 0.737 to 0.729, just below the band.)
     counts = _counts("predictive")
-    assert {k: len(v) for k, v in counts.items()} == {"right": 10, "wrong": 10, "borderline": 3}
+    assert {k: len(v) for k, v in counts.items()} == {"right": 10, "wrong": 11, "borderline": 2}
     assert counts["wrong"] == PREDICTIVE_ROUTE_MISSES
     assert counts["borderline"] == PREDICTIVE_ROUTE_BORDERLINE
 
