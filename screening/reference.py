@@ -1,9 +1,15 @@
-"""Measured reference data from ``seed_data/``: compounds, substrates, bowing and elastic constants.
+"""Measured reference data from ``seed_data/``: compounds, substrates, bowing, elastic constants.
+
+Besides the model inputs, two validation tables are read here and kept apart from them: the
+measured valence-band spin-orbit splittings Delta0 (``spin_orbit.csv``) and the measured
+conduction-valley energies at Gamma, X and L (``valleys.csv``). The engine never fits to them;
+tests compare its predictions with them.
 
 Every value carries its source (handbook or paper, with year) and a ``from_memory`` flag: true
 where the value was recalled rather than checked against the printed source. The CSV files and
-their conventions are described in ``seed_data/README.md``. All values are at room temperature
-(300 K); lengths are in angstrom, energies in eV, elastic constants in GPa.
+their conventions are described in ``seed_data/README.md``. Values are at room temperature
+(300 K) unless a row or column says otherwise (semimetal gaps and valley energies name their
+temperature); lengths are in angstrom, energies in eV, elastic constants in GPa.
 
 The loader validates each file as it reads it and raises :class:`SeedDataError` (a
 ``ValueError``) naming the file and line of the first problem: a wrong header, an unknown
@@ -38,6 +44,8 @@ COMPOUNDS_FILE = "compounds.csv"
 SUBSTRATES_FILE = "substrates.csv"
 BOWING_FILE = "bowing.csv"
 ELASTIC_FILE = "elastic.csv"
+SPIN_ORBIT_FILE = "spin_orbit.csv"
+VALLEYS_FILE = "valleys.csv"
 
 COMPOUND_COLUMNS = ("formula", "property", "value", "unit", "source", "from_memory", "note")
 SUBSTRATE_COLUMNS = ("name", "structure", "lattice_a", "lattice_c", "source", "from_memory", "note")
@@ -55,6 +63,16 @@ BOWING_COLUMNS = (
     "note",
 )
 ELASTIC_COLUMNS = ("formula", "c11_GPa", "c12_GPa", "c44_GPa", "source", "from_memory", "note")
+SPIN_ORBIT_COLUMNS = ("formula", "delta0_eV", "source", "from_memory", "note")
+VALLEY_COLUMNS = (
+    "formula",
+    "valley",
+    "energy_eV",
+    "temperature_K",
+    "source",
+    "from_memory",
+    "note",
+)
 
 
 COORDINATIONS = ("fourfold", "sixfold")
@@ -225,6 +243,52 @@ class ElasticConstants:
         return self.c12_GPa / (self.c11_GPa + self.c12_GPa)
 
 
+@dataclass(frozen=True)
+class SpinOrbitSplitting:
+    """Measured valence-band spin-orbit splitting Delta0 of one compound (validation data).
+
+    Delta0 = E(Gamma8) - E(Gamma7) at the valence-band top (Gamma25' split in the diamond
+    structure); negative where Gamma7 lies above Gamma8 (CuCl). For a wurtzite compound it is
+    the spin-orbit parameter of the quasi-cubic model.
+
+    Attributes:
+        formula: Normalised compound formula.
+        delta0_eV: Delta0 in eV.
+        source: Handbook or paper, with year.
+        from_memory: True where the value was recalled rather than checked against the source.
+        note: Free text.
+    """
+
+    formula: str
+    delta0_eV: float
+    source: str
+    from_memory: bool
+    note: str
+
+
+@dataclass(frozen=True)
+class ValleyEnergy:
+    """Measured energy of one conduction-band valley above the valence-band top (validation data).
+
+    Attributes:
+        formula: Normalised compound formula.
+        valley: "Gamma", "X" or "L" (X stands for the Delta-line minimum near X in C and Si).
+        energy_eV: Energy of the valley minimum above the valence-band maximum, in eV.
+        temperature_K: Temperature of the value in K (0 for extrapolated band-edge values).
+        source: Handbook or paper, with year.
+        from_memory: True where the value was recalled rather than checked against the source.
+        note: Free text.
+    """
+
+    formula: str
+    valley: str
+    energy_eV: float
+    temperature_K: float
+    source: str
+    from_memory: bool
+    note: str
+
+
 def seed_data_dir() -> Path:
     """Return the seed-data directory.
 
@@ -325,9 +389,67 @@ def elastic_constants(data_dir: Path | str | None = None) -> dict[str, ElasticCo
     return dict(_load_elastic(_file(data_dir, ELASTIC_FILE)))
 
 
+def spin_orbit_splittings(data_dir: Path | str | None = None) -> dict[str, SpinOrbitSplitting]:
+    """Return the measured valence-band spin-orbit splittings, formula -> Delta0.
+
+    Validation data: kept apart from the model inputs, for checking a computed Delta0.
+
+    Args:
+        data_dir: Directory holding ``spin_orbit.csv``; default :func:`seed_data_dir`.
+
+    Returns:
+        A new dict keyed by normalised formula.
+
+    Raises:
+        SeedDataError: If the file is missing or malformed.
+    """
+    return dict(_load_spin_orbit(_file(data_dir, SPIN_ORBIT_FILE)))
+
+
+def valley_energies(data_dir: Path | str | None = None) -> dict[str, dict[str, ValleyEnergy]]:
+    """Return the measured conduction-valley energies, formula -> valley -> :class:`ValleyEnergy`.
+
+    Validation data: kept apart from the model inputs. All valleys of one compound are given at
+    one temperature, so their order is meaningful.
+
+    Args:
+        data_dir: Directory holding ``valleys.csv``; default :func:`seed_data_dir`.
+
+    Returns:
+        A new dict keyed by normalised formula, then by "Gamma", "X" or "L".
+
+    Raises:
+        SeedDataError: If the file is missing or malformed.
+    """
+    cached = _load_valleys(_file(data_dir, VALLEYS_FILE))
+    return {formula: dict(valleys) for formula, valleys in cached.items()}
+
+
+def valley_order(formula: str, data_dir: Path | str | None = None) -> tuple[str, ...]:
+    """Return the measured valleys of a compound from the lowest to the highest energy.
+
+    Args:
+        formula: Normalised compound formula, e.g. ``"GaP"``.
+        data_dir: Directory holding ``valleys.csv``; default :func:`seed_data_dir`.
+
+    Returns:
+        Valley names ordered by energy (e.g. ``("X", "L", "Gamma")`` for GaP); empty if the
+        table has no row for the compound.
+    """
+    valleys = _load_valleys(_file(data_dir, VALLEYS_FILE)).get(formula, {})
+    return tuple(sorted(valleys, key=lambda name: valleys[name].energy_eV))
+
+
 def clear_cache() -> None:
     """Forget every parsed file, so the next call reads the files again."""
-    for loader in (_load_compounds, _load_substrates, _load_bowing, _load_elastic):
+    for loader in (
+        _load_compounds,
+        _load_substrates,
+        _load_bowing,
+        _load_elastic,
+        _load_spin_orbit,
+        _load_valleys,
+    ):
         loader.cache_clear()
 
 
@@ -413,7 +535,7 @@ def _choice(path: Path, line: int, what: str, value: str, allowed: tuple[str, ..
 
 
 # ------------------------------------------------------------------------------------------
-# The four loaders (cached per resolved file path)
+# The loaders (cached per resolved file path)
 
 
 @lru_cache(maxsize=16)
@@ -551,6 +673,56 @@ def _load_elastic(path: Path) -> dict[str, ElasticConstants]:
             c11_GPa=c11,
             c12_GPa=c12,
             c44_GPa=c44,
+            source=source,
+            from_memory=from_memory,
+            note=row["note"],
+        )
+    return data
+
+
+@lru_cache(maxsize=16)
+def _load_spin_orbit(path: Path) -> dict[str, SpinOrbitSplitting]:
+    data: dict[str, SpinOrbitSplitting] = {}
+    for line, row in _rows(path, SPIN_ORBIT_COLUMNS):
+        formula = row["formula"]
+        _check_formula(path, line, formula)
+        if formula in data:
+            raise SeedDataError(f"{_where(path, line)}: duplicate spin-orbit row for {formula}")
+        source, from_memory = _provenance(path, line, row)
+        data[formula] = SpinOrbitSplitting(
+            formula=formula,
+            delta0_eV=_number(path, line, "delta0_eV", row["delta0_eV"]),
+            source=source,
+            from_memory=from_memory,
+            note=row["note"],
+        )
+    return data
+
+
+@lru_cache(maxsize=16)
+def _load_valleys(path: Path) -> dict[str, dict[str, ValleyEnergy]]:
+    data: dict[str, dict[str, ValleyEnergy]] = {}
+    for line, row in _rows(path, VALLEY_COLUMNS):
+        formula = row["formula"]
+        _check_formula(path, line, formula)
+        valley = _choice(path, line, "valley", row["valley"], VALLEYS)
+        if valley in data.get(formula, {}):
+            raise SeedDataError(f"{_where(path, line)}: duplicate {valley} valley for {formula}")
+        temperature = _number(path, line, "temperature_K", row["temperature_K"])
+        if temperature < 0:
+            raise SeedDataError(f"{_where(path, line)}: temperature_K must not be negative")
+        others = data.get(formula, {})
+        if others and next(iter(others.values())).temperature_K != temperature:
+            raise SeedDataError(
+                f"{_where(path, line)}: every valley of {formula} must be given at one "
+                "temperature, so that their order means something"
+            )
+        source, from_memory = _provenance(path, line, row)
+        data.setdefault(formula, {})[valley] = ValleyEnergy(
+            formula=formula,
+            valley=valley,
+            energy_eV=_number(path, line, "energy_eV", row["energy_eV"]),
+            temperature_K=temperature,
             source=source,
             from_memory=from_memory,
             note=row["note"],

@@ -62,9 +62,18 @@ def _value(compounds, formula: str, prop: str):
 # Every row of every file: provenance
 
 
-@pytest.mark.parametrize(
-    "name", [reference.COMPOUNDS_FILE, reference.SUBSTRATES_FILE, "bowing.csv", "elastic.csv"]
-)
+SEED_FILES = [
+    reference.COMPOUNDS_FILE,
+    reference.SUBSTRATES_FILE,
+    "bowing.csv",
+    "elastic.csv",
+    "varshni.csv",
+    reference.SPIN_ORBIT_FILE,
+    reference.VALLEYS_FILE,
+]
+
+
+@pytest.mark.parametrize("name", SEED_FILES)
 def test_every_row_has_source_and_from_memory_flag(name: str) -> None:
     with (SEED / name).open(newline="", encoding="utf-8") as handle:
         rows = list(csv.DictReader(handle))
@@ -79,8 +88,16 @@ def test_every_row_has_source_and_from_memory_flag(name: str) -> None:
 
 def test_readme_exists_and_names_every_file() -> None:
     text = (SEED / "README.md").read_text(encoding="utf-8")
-    for name in ("compounds.csv", "substrates.csv", "bowing.csv", "elastic.csv", "from_memory"):
+    for name in [*SEED_FILES, "from_memory"]:
         assert name in text
+
+
+def test_no_seed_file_cites_a_general_textbook() -> None:
+    # Data come from primary measurements or data handbooks (seed_data/README.md, "Adding a
+    # row"); the general solid-state textbook once cited for eight rows must not come back.
+    for path in sorted(SEED.iterdir()):
+        if path.suffix in (".csv", ".md"):
+            assert "kittel" not in path.read_text(encoding="utf-8").lower(), path.name
 
 
 # ------------------------------------------------------------------------------------------
@@ -180,6 +197,64 @@ def test_gap_kind_consistent_with_gap_values(compounds) -> None:
             assert gamma.value == pytest.approx(gap.value), formula
         if kind.value == "indirect" and gap is not None and gamma is not None:
             assert gamma.value > gap.value, formula
+
+
+def test_semimetals_carry_their_negative_e0_with_a_temperature(compounds) -> None:
+    # One convention (seed_data/README.md): band_gap = E(Gamma6) - E(Gamma8) < 0, and the note
+    # says at which temperature. Madelung 2004 and Hansen, Schmit & Casselman 1982, from memory.
+    semimetals = {
+        formula
+        for formula, props in compounds.items()
+        if "gap_kind" in props and props["gap_kind"].value == "semimetal"
+    }
+    assert semimetals == {"Sn", "HgSe", "HgTe"}
+    for formula in semimetals:
+        gap = compounds[formula]["band_gap"]
+        assert gap.value < 0.0, formula
+        assert compounds[formula]["direct_gap_gamma"].value == pytest.approx(gap.value), formula
+        assert re.search(r"\d K\b", gap.note), f"{formula}: the note must give the temperature"
+
+
+def test_hgte_e0_follows_the_hgcdte_fit_at_x0_300k(compounds) -> None:
+    # Hansen, Schmit & Casselman, J. Appl. Phys. 53, 7099 (1982), from memory:
+    # E0 = -0.302 + 1.93x - 0.81x^2 + 0.832x^3 + 5.35e-4 T (1 - 2x) eV; x = 0, T = 300 K.
+    expected = -0.302 + 5.35e-4 * 300.0
+    assert _value(compounds, "HgTe", "band_gap") == pytest.approx(expected, abs=0.005)
+
+
+def test_every_measured_gap_has_a_kind_or_says_why_not(compounds) -> None:
+    for formula, props in compounds.items():
+        if "band_gap" in props and "gap_kind" not in props:
+            assert "kind not recalled" in props["band_gap"].note, formula
+
+
+def test_varshni_laws_agree_with_the_measured_300k_gaps(compounds) -> None:
+    # The lowest Varshni valley at 300 K, E(0) - alpha T^2 / (T + beta), against band_gap. VMR
+    # 2001 and the handbooks quote 300 K gaps up to 0.04 eV apart (AlP 2.45 vs 2.49), hence the
+    # tolerance; InN once disagreed by 0.056 eV (0.70 against 0.756).
+    laws: dict[str, list[float]] = {}
+    with (SEED / "varshni.csv").open(newline="", encoding="utf-8") as handle:
+        for row in csv.DictReader(handle):
+            if not row["alpha_meV_per_K"]:
+                continue  # the Bose-Einstein GaP Gamma row, never GaP's lowest valley
+            t = 300.0
+            alpha = float(row["alpha_meV_per_K"]) * 1e-3
+            beta = float(row["beta_K"])
+            laws.setdefault(row["formula"], []).append(
+                float(row["eg0_eV"]) - alpha * t * t / (t + beta)
+            )
+    assert len(laws) >= 14
+    for formula, values in laws.items():
+        assert min(values) == pytest.approx(_value(compounds, formula, "band_gap"), abs=0.05), (
+            formula
+        )
+
+
+def test_silver_halide_gaps_are_room_temperature_values(compounds) -> None:
+    # Madelung 2004, from memory: the indirect gaps 3.249 eV (AgCl) and 2.684 eV (AgBr) are
+    # 4.2 K values; the 300 K gaps lie lower.
+    assert _value(compounds, "AgCl", "band_gap") < 3.249
+    assert _value(compounds, "AgBr", "band_gap") < 2.684
 
 
 def test_units_follow_the_property(compounds) -> None:
@@ -324,6 +399,75 @@ def test_elastic_constants() -> None:
         assert 0.1 < el.poisson_ratio_001 < 0.45, formula
     assert table["GaAs"].poisson_ratio_001 == pytest.approx(0.317, abs=5e-4)  # VMR 2001, memory
     assert table["Si"].c11_GPa == pytest.approx(165.8)  # Madelung 2004, from memory
+    # McSkimin & Andreatch, J. Appl. Phys. 43, 2944 (1972), from memory: 10.79, 1.24, 5.78
+    # x 10^12 dyn/cm^2.
+    diamond = table["C"]
+    assert (diamond.c11_GPa, diamond.c12_GPa, diamond.c44_GPa) == pytest.approx((1079, 124, 578))
+
+
+# ------------------------------------------------------------------------------------------
+# Validation tables: spin-orbit splittings and conduction-valley energies
+
+
+def test_spin_orbit_table() -> None:
+    table = reference.spin_orbit_splittings()
+    assert len(table) >= 25
+    assert set(table) <= CATALOGUE
+    for formula, row in table.items():
+        assert row.formula == formula
+        assert -0.2 < row.delta0_eV < 1.2, formula
+    assert table["GaAs"].delta0_eV == pytest.approx(0.341)  # VMR 2001, from memory
+    assert table["Si"].delta0_eV == pytest.approx(0.044)  # Madelung 2004, from memory
+    assert table["InSb"].delta0_eV == pytest.approx(0.81)  # VMR 2001, from memory
+    assert table["CuCl"].delta0_eV < 0  # Madelung 2004 (Gamma7 above Gamma8), from memory
+
+
+@pytest.mark.parametrize(
+    "series",
+    [
+        ("GaP", "GaAs", "GaSb"),  # VMR 2001, from memory
+        ("InP", "InAs", "InSb"),  # VMR 2001, from memory
+        ("AlP", "AlAs", "AlSb"),  # VMR 2001, from memory
+        ("ZnS", "ZnSe", "ZnTe"),  # Madelung 2004, from memory
+        ("C", "Si", "Ge", "Sn"),  # Madelung 2004, from memory
+    ],
+)
+def test_spin_orbit_grows_down_the_periodic_table(series) -> None:
+    table = reference.spin_orbit_splittings()
+    values = [table[f].delta0_eV for f in series]
+    assert values == sorted(values) and len(set(values)) == len(values), series
+
+
+@pytest.mark.parametrize(
+    ("formula", "order"),
+    [
+        ("Si", ("X", "L", "Gamma")),  # Madelung 2004, from memory
+        ("Ge", ("L", "Gamma", "X")),  # Madelung 2004, from memory
+        ("GaP", ("X", "L", "Gamma")),  # VMR 2001, from memory
+        ("AlAs", ("X", "L", "Gamma")),  # VMR 2001, from memory
+        ("GaAs", ("Gamma", "L", "X")),  # VMR 2001, from memory
+    ],
+)
+def test_valley_order(formula, order) -> None:
+    assert reference.valley_order(formula) == order
+
+
+def test_valley_order_of_an_unknown_compound_is_empty() -> None:
+    assert reference.valley_order("BaTe") == ()
+
+
+def test_valleys_agree_with_the_measured_gap_and_kind(compounds) -> None:
+    table = reference.valley_energies()
+    assert len(table) >= 13
+    for formula, valleys in table.items():
+        lowest = min(valleys.values(), key=lambda v: v.energy_eV)
+        gap = _value(compounds, formula, "band_gap")
+        if lowest.temperature_K == 300:
+            assert lowest.energy_eV == pytest.approx(gap, abs=0.02), formula
+        else:  # 0 K band edges: gaps shrink as the lattice warms
+            assert gap < lowest.energy_eV < gap + 0.2, formula
+        kind = _value(compounds, formula, "gap_kind")
+        assert (lowest.valley == "Gamma") == (kind == "direct"), formula
 
 
 # ------------------------------------------------------------------------------------------
@@ -436,6 +580,26 @@ def test_seed_data_error_is_a_value_error() -> None:
             ",".join(reference.ELASTIC_COLUMNS) + "\nGaAs,122.1,,60.0,VMR 2001,true,\n",
             "c12_GPa '' is not a number",
         ),
+        (
+            "spin_orbit.csv",
+            ",".join(reference.SPIN_ORBIT_COLUMNS) + "\nGaAs,0.34x,VMR 2001,true,\n",
+            "delta0_eV '0.34x' is not a number",
+        ),
+        (
+            "spin_orbit.csv",
+            ",".join(reference.SPIN_ORBIT_COLUMNS) + "\nGaAs,0.341,,true,\n",
+            "missing source",
+        ),
+        (
+            "valleys.csv",
+            ",".join(reference.VALLEY_COLUMNS) + "\nGaAs,K,1.9,0,VMR 2001,true,\n",
+            "valley 'K'",
+        ),
+        (
+            "valleys.csv",
+            ",".join(reference.VALLEY_COLUMNS) + "\nGaAs,X,1.981,-5,VMR 2001,true,\n",
+            "must not be negative",
+        ),
     ],
 )
 def test_malformed_other_files_name_file_and_line(tmp_path, name, text, message) -> None:
@@ -444,10 +608,39 @@ def test_malformed_other_files_name_file_and_line(tmp_path, name, text, message)
         "substrates.csv": reference.substrates,
         "bowing.csv": reference.bowing_parameters,
         "elastic.csv": reference.elastic_constants,
+        "spin_orbit.csv": reference.spin_orbit_splittings,
+        "valleys.csv": reference.valley_energies,
     }
     with pytest.raises(SeedDataError, match=message) as info:
         loaders[name](tmp_path)
     assert f"{path}:2" in str(info.value)
+
+
+VALLEY_HEADER = ",".join(reference.VALLEY_COLUMNS) + "\n"
+
+
+@pytest.mark.parametrize(
+    ("second_row", "message"),
+    [
+        ("GaAs,Gamma,1.42,0,VMR 2001,true,\n", "duplicate Gamma valley for GaAs"),
+        ("GaAs,X,1.90,300,VMR 2001,true,\n", "must be given at one temperature"),
+    ],
+)
+def test_malformed_valley_rows_name_file_and_line(tmp_path, second_row, message) -> None:
+    path = _write(
+        tmp_path, "valleys.csv", VALLEY_HEADER + "GaAs,Gamma,1.519,0,VMR 2001,true,\n" + second_row
+    )
+    with pytest.raises(SeedDataError, match=message) as info:
+        reference.valley_energies(tmp_path)
+    assert f"{path}:3" in str(info.value)
+
+
+def test_duplicate_spin_orbit_row_is_rejected(tmp_path) -> None:
+    header = ",".join(reference.SPIN_ORBIT_COLUMNS) + "\n"
+    row = "GaAs,0.341,VMR 2001,true,\n"
+    _write(tmp_path, "spin_orbit.csv", header + row + row)
+    with pytest.raises(SeedDataError, match="duplicate spin-orbit row for GaAs"):
+        reference.spin_orbit_splittings(tmp_path)
 
 
 def test_importing_reference_pulls_in_no_web_or_database_module() -> None:
