@@ -14,6 +14,8 @@ from __future__ import annotations
 import math
 from typing import Any
 
+import numpy as np
+
 from screening import MODEL_VERSION, epitaxy
 from screening.alloys import AlloyProperties, alloy_properties, parse_material
 from screening.alloys.endpoints import endpoint_gaps
@@ -27,6 +29,7 @@ from screening.hazards import hazards_block
 from screening.phillips import PhillipsResult
 from screening.reference import Measured, measured_compounds
 from screening.report import check_temperature, compound_report
+from screening.spin_orbit import spin_orbit_table
 
 GAP_ROUTES = {
     "ternary": "lowest valley of the end-point gaps interpolated along the ternary with "
@@ -66,6 +69,21 @@ def _site_text(elements: tuple[str, ...], fractions: tuple[float, ...]) -> str:
     return "".join(e + f"{f:.4f}".rstrip("0").rstrip(".") for e, f in present)
 
 
+def _reaches_zero(gap: float | None, props: AlloyProperties) -> bool:
+    """True where a positive gap's range (value - uncertainty) reaches zero."""
+    uncertainty = _float(props.band_gap_uncertainty_eV[0]) or 0.0
+    return gap is not None and gap > 0 and gap - uncertainty <= 0
+
+
+def _wavelength_range(gap: float | None, props: AlloyProperties) -> list[float | None] | None:
+    """[short, long] photon wavelengths of gap +/- uncertainty (long None where it reaches 0)."""
+    uncertainty = _float(props.band_gap_uncertainty_eV[0])
+    if gap is None or gap <= 0 or uncertainty is None:
+        return None
+    low = gap - uncertainty
+    return [HC_EV_NM / (gap + uncertainty), HC_EV_NM / low if low > 0 else None]
+
+
 def _band_gap(alloy: Alloy, props: AlloyProperties) -> dict[str, Any]:
     gap = _float(props.band_gap_eV[0])
     valley = str(props.valley[0])
@@ -78,15 +96,22 @@ def _band_gap(alloy: Alloy, props: AlloyProperties) -> dict[str, Any]:
         "estimate_eV": gap,
         "uncertainty_eV": _float(props.band_gap_uncertainty_eV[0]),
         "cross_validated_eV": None,
+        "cross_validated_uncertainty_eV": None,
         "measured_eV": None,
         "measured_300K_eV": None,
-        "kind": KIND_OF_VALLEY.get(valley),
+        "semimetal": gap is not None and gap <= 0,
+        "may_be_semimetal": _reaches_zero(gap, props),
+        "kind": "semimetal" if gap is not None and gap <= 0 else KIND_OF_VALLEY.get(valley),
+        "kind_estimate": KIND_OF_VALLEY.get(valley),
+        "indirect_probability": None,
         "kind_source": f"valley of the interpolated gap ({valley or 'unknown'})",
         "valley": valley or None,
         "temperature_K": props.temperature_K,
         "temperature_law": "end points' gaps at the temperature; bowing parameters as published",
         "temperature_law_assumed": bool(assumed),
-        "wavelength_nm": _float(HC_EV_NM / gap) if gap and gap > 0 else None,
+        "wavelength_nm": (_float(HC_EV_NM / gap) if gap and gap > 0
+                          and not _reaches_zero(gap, props) else None),
+        "wavelength_range_nm": _wavelength_range(gap, props),
         "default_bowing": bool(props.default_bowing[0]),
         "route": GAP_ROUTES[alloy.system.form],
         "sources": list(props.gap_sources),
@@ -98,6 +123,21 @@ def _cited(item: Measured | None) -> str | None:
     if item is None:
         return None
     return item.source + (" (from memory)" if item.from_memory else "")
+
+
+def _spin_orbit(alloy: Alloy) -> dict[str, Any]:
+    """Composition-weighted mean of the end points' Delta0 (no spin-orbit bowing)."""
+    weights = site_weights(alloy.system, [alloy.fractions])[0]
+    table = spin_orbit_table()
+    position = {c.formula: i for i, c in enumerate(catalogue_table().compounds)}
+    values = [float(table.value_eV[position[b]]) for b in alloy.system.binaries]
+    routes = sorted({table.route[position[b]] for b in alloy.system.binaries})
+    return {
+        "splitting_eV": _float(float(np.dot(weights, values))),
+        "route": "weighted mean of the end points (" + " and ".join(routes) + "), no bowing",
+        "source": "end points: " + "; ".join(
+            f"{b} {table.route[position[b]]}" for b in alloy.system.binaries),
+    }
 
 
 def _end_points(alloy: Alloy, temperature_K: float) -> list[dict[str, Any]]:
@@ -208,6 +248,7 @@ def alloy_report(text: str, temperature_K: float = 300.0) -> dict[str, Any]:
             "route": VCA_ROUTE,
         },
         "band_gap": _band_gap(alloy, props),
+        "spin_orbit": _spin_orbit(alloy),
         "tight_binding": None,
         "elastic": {"poisson_ratio_001": _float(props.poisson_ratio[0]),
                     "poisson_assumed": bool(props.poisson_assumed[0]),

@@ -18,6 +18,7 @@ from screening.hazards import hazards_block
 from screening.lattice_estimate import LatticeEstimate
 from screening.phillips import PhillipsResult
 from screening.reference import Measured
+from screening.spin_orbit import spin_orbit_table
 from screening.suggest import with_suggestions
 
 
@@ -117,19 +118,14 @@ def _model_summary() -> dict[str, Any]:
 
 
 def _spin_orbit(i: int) -> dict[str, Any]:
-    model = gap_model()
+    table = spin_orbit_table()
     return {
-        "splitting_eV": _float(model.features.spin_orbit_eV[i]),
-        "route": "model",
-        "source": SPIN_ORBIT_SOURCE,
+        "splitting_eV": _float(table.value_eV[i]),
+        "route": table.route[i],
+        "source": table.source[i],
+        "model_eV": _float(table.model_eV[i]),
+        "measured_eV": _float(table.measured_eV[i]),
     }
-
-
-SPIN_ORBIT_SOURCE = (
-    "atomic p-level spin-orbit splittings from the atom solver, weighted by the anion and "
-    "cation shares of the valence-band top (bond-orbital weighting: W. A. Harrison, "
-    "Electronic Structure and the Properties of Solids (1980))")
-"""Where the valence-band spin-orbit splitting comes from."""
 
 
 def _tight_binding(i: int) -> dict[str, Any]:

@@ -200,7 +200,7 @@ def test_a_target_no_alloy_reaches_is_an_empty_answer() -> None:
         ({"geometry": "triple-kink"}, UnknownChoiceError),
         ({"exclude_elements": ("Xx",)}, UnknownElementError),
         ({"system": "InGaN"}, StructureMismatchError),
-        ({"system": "BGaAs"}, MissingDataError),
+        ({"system": "CaSTe"}, MissingDataError),  # CaTe has no measured gap
         ({"system": "InGaAsPSb"}, CompositionError),
         ({"system": "In0.5GaAs"}, FormulaSyntaxError),
     ],

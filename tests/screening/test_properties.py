@@ -135,7 +135,11 @@ def test_parse_alloy_returns_fractions_on_each_site_or_an_input_error(text: str)
     n_cat = len(alloy.system.cations)
     assert math.isclose(fractions[:n_cat].sum(), 1.0, abs_tol=1e-9)
     assert math.isclose(fractions[n_cat:].sum(), 1.0, abs_tol=1e-9)
-    assert parse_alloy(alloy.formula).system == alloy.system
+    # The formula rounds to FORMULA_DECIMALS and leaves out an element whose fraction rounds
+    # to zero (format_alloy): reading it back gives the same fractions to that rounding.
+    again = parse_alloy(alloy.formula).site_fractions
+    for element, fraction in alloy.site_fractions.items():
+        assert again.get(element, 0.0) == pytest.approx(fraction, abs=2e-4)
 
 
 @FAST
