@@ -45,7 +45,7 @@ MAX_PAGE_ROWS = 1000
 """Most matches in one answer of the API; the rest come by `offset`."""
 MAX_TABLE_ROWS = 500
 """Most matches in one finder page (HTML): the table's rendering costs more per row than JSON."""
-MAX_OFFSET = 1_000_000
+MAX_OFFSET = 10_000_000
 """Largest `offset` accepted: more compositions than the whole design space holds."""
 SORT_KEYS: tuple[str, ...] = ORDER_KEYS
 """Columns the matches can be ordered by ("rank": the finder's score, best first)."""

@@ -12,7 +12,8 @@ from app.band_data import bands_payload
 from app.views import Line, Section, dig, wavelength_of
 from screening.bands import MODEL_LIMITS
 
-ESTIMATOR = "Eg ≈ b0 + E_TB (b1 + b2 αp + b3 n_d), sp3 tight-binding gap E_TB"
+ESTIMATOR = ("Gaussian process over the band structure's physical features "
+             "(tight-binding gap, polarity, atomic levels, p-d repulsion)")
 TIGHT_BINDING = "J. C. Slater and G. F. Koster, Phys. Rev. 94, 1498 (1954); " \
     "W. A. Harrison, Phys. Rev. B 24, 5835 (1981)"
 CHART_POINTS = 300
@@ -28,6 +29,36 @@ def _moved(gap: dict[str, Any]) -> str:
     return f", moved to {temperature:g} K by the {law}"
 
 
+def _error_bar_text(model: dict[str, Any]) -> str:
+    """How the ± of an estimate was validated, in one sentence."""
+    one, two = model.get("within_one_uncertainty"), model.get("within_two_uncertainties")
+    text = (f"fit of ours on {model.get('n_measured')} measured gaps; ± is the estimate's own "
+            "predictive uncertainty")
+    if one is not None and two is not None:
+        text += (f", validated by nested leave-one-out: {100 * one:.0f} % of held-out errors "
+                 f"within ±1, {100 * two:.0f} % within ±2")
+    return text
+
+
+def _range(gap: dict[str, Any]) -> tuple[float, float | None] | None:
+    """The estimate's wavelength range, where it is an estimate with a positive gap."""
+    span = gap.get("wavelength_range_nm")
+    if not span or gap.get("semimetal"):
+        return None
+    return (float(span[0]), None if span[1] is None else float(span[1]))
+
+
+def _semimetal_note(gap: dict[str, Any]) -> str:
+    """A warning where the estimate is, or may be, a semimetal."""
+    if gap.get("value_source") == "measured":
+        return ""
+    if gap.get("semimetal"):
+        return "; negative: a semimetal in this estimate, no emission wavelength"
+    if gap.get("may_be_semimetal"):
+        return "; its range reaches zero: the compound may be a semimetal"
+    return ""
+
+
 def band_gap_section(report: dict[str, Any]) -> Section:
     """The band-gap block: measured at T, estimate ± uncertainty, leave-one-out, kind, law.
 
@@ -41,8 +72,7 @@ def band_gap_section(report: dict[str, Any]) -> Section:
     measured_source = str(measured.get("source") or "no measured value in the seed data")
     if measured.get("from_memory"):
         measured_source += " (from memory)"
-    family_error = (f"calibration of ours on {model.get('n_measured')} measured gaps; ± is the "
-                    "leave-one-out RMS error of the family")
+    family_error = _error_bar_text(model)
     kind_item = dig(report, "measured.gap_kind") or {}
     has_measured = gap.get("measured_eV") is not None
     loo = gap.get("cross_validated_eV")
@@ -52,12 +82,14 @@ def band_gap_section(report: dict[str, Any]) -> Section:
              measured_source, wavelength_nm=wavelength_of(gap.get("measured_eV")),
              key="measured"),
         Line(f"Band gap at {temperature:g} K, estimate", gap.get("estimate_eV"), "eV",
-             ESTIMATOR + _moved(gap), family_error, uncertainty=gap.get("uncertainty_eV"),
-             wavelength_nm=wavelength_of(gap.get("estimate_eV")), key="estimate"),
+             ESTIMATOR + _moved(gap) + _semimetal_note(gap), family_error,
+             uncertainty=gap.get("uncertainty_eV"),
+             wavelength_nm=wavelength_of(gap.get("estimate_eV")), key="estimate",
+             wavelength_range_nm=_range(gap)),
         Line("Leave-one-out estimate", loo, "eV",
              "the estimator refitted without this compound" + _moved(gap) if has_measured
              else "no measured gap to leave out", family_error,
-             uncertainty=gap.get("uncertainty_eV") if loo is not None else None,
+             uncertainty=gap.get("cross_validated_uncertainty_eV") if loo is not None else None,
              wavelength_nm=wavelength_of(loo), key="cross_validated"),
         Line("Gap kind", gap.get("kind"), "", gap.get("kind_source") or "",
              str(kind_item.get("source") or MODEL_LIMITS), key="kind"),
@@ -120,6 +152,9 @@ def gap_summary(report: dict[str, Any]) -> dict[str, Any]:
         "uncertainty_eV": gap.get("uncertainty_eV") if gap.get("value_source") != "measured"
         else None,
         "wavelength_nm": gap.get("wavelength_nm"),
+        "wavelength_range_nm": gap.get("wavelength_range_nm"),
+        "semimetal": gap.get("semimetal"),
+        "may_be_semimetal": gap.get("may_be_semimetal"),
         "temperature_K": gap["temperature_K"],
         "kind": gap.get("kind"),
         "kind_source": gap.get("kind_source"),

@@ -59,6 +59,8 @@ class Line:
         source: Where it comes from (publication, seed data).
         uncertainty: The estimate's uncertainty (same unit), shown as "± u".
         wavelength_nm: Photon wavelength of a band gap, shown beside it.
+        wavelength_range_nm: (short, long) wavelengths of an estimate's range, shown instead
+            of one wavelength; long None where the range reaches zero (may be a semimetal).
         key: A stable name for the line (page element ids, tests).
     """
 
@@ -70,6 +72,7 @@ class Line:
     uncertainty: float | None = None
     wavelength_nm: float | None = None
     key: str = ""
+    wavelength_range_nm: tuple[float, float | None] | None = None
 
     @property
     def text(self) -> str:
@@ -84,7 +87,12 @@ class Line:
 
     @property
     def wavelength_text(self) -> str:
-        """The photon wavelength as shown ("" where there is none)."""
+        """The photon wavelength (or an estimate's range) as shown ("" where there is none)."""
+        if self.wavelength_range_nm is not None:
+            short, long = self.wavelength_range_nm
+            if long is None:
+                return f"{short:.0f} nm or longer; may be a semimetal"
+            return f"{short:.0f}–{long:.0f} nm"
         return f"{self.wavelength_nm:.0f} nm" if self.wavelength_nm else ""
 
 

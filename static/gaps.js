@@ -132,6 +132,32 @@
     Plotly.newPlot(el, traces, layout, CONFIG);
   }
 
+  function drawCalibration(d) {
+    const el = document.getElementById("chart-calibration");
+    if (!el || !d) return;
+    const sd = d.rows.map(function (r) { return r.uncertainty_eV; });
+    const err = d.rows.map(function (r) { return Math.abs(r.error_eV); });
+    const hi = Math.max(Math.max.apply(null, sd) * 1.1, 0.1);
+    const top = Math.max(Math.max.apply(null, err), 2 * hi) * 1.05;
+    const traces = [
+      { x: sd, y: err, text: d.rows.map(function (r) { return r.formula; }),
+        mode: "markers", type: "scatter", name: "compound",
+        marker: { color: INK, size: 7, opacity: 0.8 },
+        hovertemplate: "%{text}<br>stated ± %{x:.2f} eV<br>actual error %{y:.2f} eV<extra></extra>" },
+      { x: [0, hi], y: [0, hi], mode: "lines", name: "error = 1 × uncertainty",
+        line: { color: INK, width: 1.2 }, hoverinfo: "skip" },
+      { x: [0, hi], y: [0, 2 * hi], mode: "lines", name: "error = 2 × uncertainty",
+        line: { color: INK, width: 1.2, dash: "dash" }, hoverinfo: "skip" },
+    ];
+    const layout = Object.assign({}, BASE_LAYOUT, {
+      xaxis: { title: { text: "Stated uncertainty (eV)" }, range: [0, hi], gridcolor: "#eeebe4" },
+      yaxis: { title: { text: "Actual |error| (eV)" }, range: [0, top], gridcolor: "#eeebe4" },
+      legend: { orientation: "h", y: -0.2 },
+      margin: { l: 64, r: 20, t: 10, b: 80 },
+    });
+    Plotly.newPlot(el, traces, layout, CONFIG);
+  }
+
   function wireTemperature() {
     const form = document.getElementById("temperature-form");
     if (!form) return;
@@ -147,5 +173,6 @@
     const charts = jsonOf("chart-data");
     if (charts) drawBands(charts.bands);
     drawAccuracy(jsonOf("accuracy-data"));
+    drawCalibration(jsonOf("accuracy-data"));
   });
 })();

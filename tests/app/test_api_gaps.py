@@ -150,7 +150,7 @@ def test_bad_band_points_get_400(client, points: str, status: int) -> None:
 def test_accuracy_endpoint(client) -> None:
     body = client.get("/api/accuracy").json()
     model = gap_model()
-    assert body["n"] == len(body["rows"]) == model.fit.targets.size
+    assert body["n"] == len(body["rows"]) == model.n_measured
     assert body["mae_eV"] == pytest.approx(model.loo_mae_eV, abs=1e-6)
     assert body["max_eV"] == pytest.approx(max(abs(r["error_eV"]) for r in body["rows"]),
                                            abs=1e-5)
@@ -159,7 +159,10 @@ def test_accuracy_endpoint(client) -> None:
         assert r["uncertainty_eV"] > 0
     assert set(body["families"]) == {"IV-IV", "III-V", "II-VI", "I-VII"}
     assert sum(f["n"] for f in body["families"].values()) == body["n"]
-    assert not any(math.isnan(v) for v in body["coefficients"].values())
+    assert body["within_one_uncertainty"] == pytest.approx(model.coverage(1.0), abs=1e-4)
+    assert body["within_two_uncertainties"] == pytest.approx(model.coverage(2.0), abs=1e-4)
+    assert body["kind_total"] > 0 and 0 <= body["kind_correct"] <= body["kind_total"]
+    assert not any(math.isnan(v) for v in body["model"]["length_scales"])
 
 
 def test_openapi_documents_the_new_routes_and_parameters(client) -> None:
