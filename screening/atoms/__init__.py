@@ -1,18 +1,21 @@
 """All-electron LDA atoms: orbital energies (term values) of the neutral atoms H to Rn.
 
-A self-consistent, spherical, non-relativistic Kohn-Sham solver (Slater exchange + VWN5
-correlation) on a logarithmic radial grid with Richardson extrapolation, and the table of its
-results for Z = 1 to 86 committed in ``screening/data/atomic_levels.json``.
+A self-consistent, spherical Kohn-Sham solver (Slater exchange + VWN5 correlation) on a
+logarithmic radial grid with Richardson extrapolation, non-relativistic or scalar-relativistic
+(scaled ZORA, with the spin-orbit splitting of the valence p level), and the tables of its
+results for Z = 1 to 86 committed in ``screening/data/atomic_levels.json`` (non-relativistic)
+and ``screening/data/atomic_levels_sr.json`` (scalar-relativistic).
 
 Public API:
-    `solve_atom` runs the SCF now; `atom_levels` and `term_values` read the committed table.
+    `solve_atom` runs the SCF now; `atom_levels`, `term_values` and `spin_orbit_splitting_eV`
+    read the committed tables.
 """
 
 from typing import Any
 
 from screening.atoms.configurations import CONFIGURATIONS, MAX_Z, valence_s_p
 from screening.atoms.levels import AtomLevels, Level
-from screening.atoms.table import atom_levels, term_values
+from screening.atoms.table import atom_levels, spin_orbit_splitting_eV, term_values
 
 _SOLVER_NAMES = {"solve_atom": "solver", "DEFAULT_SETTINGS": "solver", "ScfSettings": "scf"}
 
@@ -34,6 +37,7 @@ __all__ = [
     "ScfSettings",
     "atom_levels",
     "solve_atom",
+    "spin_orbit_splitting_eV",
     "term_values",
     "valence_s_p",
 ]

@@ -1,9 +1,12 @@
-"""Generate or check the committed table of LDA atomic levels (H to Rn).
+"""Generate or check the committed tables of LDA atomic levels (H to Rn).
+
+Both tables, non-relativistic (``atomic_levels.json``) and scalar-relativistic
+(``atomic_levels_sr.json``), are solved and written or checked together.
 
 Usage::
 
-    python -m screening.atoms.generate --write    # solve all 86 atoms, write the JSON
-    python -m screening.atoms.generate --check    # solve again, compare with the file
+    python -m screening.atoms.generate --write    # solve all 86 atoms twice, write the JSON
+    python -m screening.atoms.generate --check    # solve again, compare with the files
 """
 
 from __future__ import annotations
@@ -17,7 +20,7 @@ from screening.atoms.levels import AtomLevels
 from screening.atoms.table import (
     ENERGY_DECIMALS,
     clear_cache,
-    compute_table,
+    compute_tables,
     load_table,
     table_document,
     table_path,
@@ -31,6 +34,10 @@ def _compare(atoms: Sequence[AtomLevels], stored: dict[int, AtomLevels]) -> floa
         old = stored[atom.Z]
         pairs = [(a.energy_eV, b.energy_eV) for a, b in zip(atom.levels, old.levels, strict=True)]
         pairs.append((atom.total_energy_eV, old.total_energy_eV))
+        if atom.valence_p_j_eV is not None and old.valence_p_j_eV is not None:
+            pairs.extend(zip(atom.valence_p_j_eV, old.valence_p_j_eV, strict=True))
+        elif atom.valence_p_j_eV != old.valence_p_j_eV:
+            return float("inf")
         worst = max(worst, max(abs(a - b) for a, b in pairs))
     return worst
 
@@ -39,7 +46,8 @@ def main(argv: Sequence[str] | None = None) -> int:
     """Command line of the table generator; returns the exit code."""
     parser = argparse.ArgumentParser(
         prog="python -m screening.atoms.generate",
-        description="Generate or check the committed table of LDA atomic levels (H to Rn).",
+        description="Generate or check the committed tables of LDA atomic levels (H to Rn), "
+        "non-relativistic and scalar-relativistic.",
     )
     action = parser.add_mutually_exclusive_group(required=True)
     action.add_argument("--write", action="store_true", help="solve all atoms, write the table")
@@ -48,18 +56,28 @@ def main(argv: Sequence[str] | None = None) -> int:
     args = parser.parse_args(argv)
 
     start = time.perf_counter()
-    atoms = compute_table(args.processes)
+    tables = dict(zip((False, True), compute_tables(args.processes), strict=True))
     elapsed = time.perf_counter() - start
-    print(f"solved {len(atoms)} atoms in {elapsed:.1f} s with {args.processes} process(es)")
+    print(
+        f"solved {len(tables[False])} atoms non- and scalar-relativistically in {elapsed:.1f} s "
+        f"with {args.processes} process(es)"
+    )
     if args.write:
-        path = table_path()
-        path.write_text(table_document(atoms), encoding="utf-8")
+        for relativistic, atoms in tables.items():
+            path = table_path(relativistic)
+            path.write_text(table_document(atoms), encoding="utf-8")
+            print(f"wrote {path}")
         clear_cache()
-        print(f"wrote {path}")
         return 0
-    worst = _compare(atoms, load_table())
     tolerance = 10.0**-ENERGY_DECIMALS
-    print(f"largest |solver - table| = {worst:.2e} eV (stored to {tolerance:.0e} eV)")
+    worst = 0.0
+    for relativistic, atoms in tables.items():
+        difference = _compare(atoms, load_table(relativistic))
+        print(
+            f"{table_path(relativistic).name}: largest |solver - table| = {difference:.2e} eV "
+            f"(stored to {tolerance:.0e} eV)"
+        )
+        worst = max(worst, difference)
     return 0 if worst <= tolerance else 1
 
 

@@ -29,12 +29,20 @@ class Level:
 class AtomLevels:
     """Kohn-Sham (LDA) levels of one neutral atom in its ground-state configuration.
 
+    Non-relativistic, or scalar-relativistic (scaled ZORA) with the spin-orbit pair of the
+    valence p level.
+
     Attributes:
         element: Element symbol.
         Z: Atomic number.
         configuration: Ground-state configuration, e.g. ``"[Ar] 3d10 4s2"``.
         levels: Every occupied orbital plus the unoccupied valence s and p, sorted by (n, l).
-        total_energy_eV: LDA total energy of the atom in eV.
+        total_energy_eV: LDA total energy of the atom in eV (for a relativistic solution with
+            the plain ZORA kinetic energy).
+        relativistic: True for scalar-relativistic levels (scaled ZORA).
+        valence_p_j_eV: Relativistic solutions only: energies in eV of the valence p level's
+            j = 1/2 and j = 3/2 states, (E(p1/2), E(p3/2)), in the final scalar potential;
+            (0, 0) where that p level is not bound.
     """
 
     element: str
@@ -42,6 +50,15 @@ class AtomLevels:
     configuration: str
     levels: tuple[Level, ...]
     total_energy_eV: float
+    relativistic: bool = False
+    valence_p_j_eV: tuple[float, float] | None = None
+
+    @property
+    def spin_orbit_splitting_eV(self) -> float | None:
+        """Delta_p = E(p3/2) - E(p1/2) of the valence p level in eV; None if non-relativistic."""
+        if self.valence_p_j_eV is None:
+            return None
+        return self.valence_p_j_eV[1] - self.valence_p_j_eV[0]
 
     def level(self, orbital: str) -> Level:
         """Return the level with spectroscopic label ``orbital`` (e.g. ``"4s"``).

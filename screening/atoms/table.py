@@ -1,8 +1,9 @@
-"""The table of LDA levels of H to Rn: generated once by the solver, then read from JSON.
+"""The tables of LDA levels of H to Rn: generated once by the solver, then read from JSON.
 
-`screening.atoms.generate` writes it (``python -m screening.atoms.generate --write``). The
-table lives in ``screening/data/atomic_levels.json``; energies are stored in eV rounded to
-1e-6 eV (the solver's numerical error is about 3e-5 eV at worst).
+`screening.atoms.generate` writes them (``python -m screening.atoms.generate --write``). The
+non-relativistic table lives in ``screening/data/atomic_levels.json``, the scalar-relativistic
+one (scaled ZORA, with the valence p spin-orbit pair) in ``atomic_levels_sr.json``; energies are
+stored in eV rounded to 1e-6 eV (the solver's numerical error is about 3e-5 eV at worst).
 """
 
 from __future__ import annotations
@@ -27,20 +28,24 @@ from screening.atoms.configurations import (
 from screening.atoms.levels import AtomLevels, Level
 
 TABLE_FILE: str = "atomic_levels.json"
-"""Name of the table in the ``screening.data`` package directory."""
+"""Name of the non-relativistic table in the ``screening.data`` package directory."""
+
+RELATIVISTIC_TABLE_FILE: str = "atomic_levels_sr.json"
+"""Name of the scalar-relativistic table in the ``screening.data`` package directory."""
 
 ENERGY_DECIMALS: int = 6
 """Energies in the table are rounded to this many decimals of eV."""
 
 
-def table_path() -> Path:
-    """Path of the committed table inside the installed package."""
-    return Path(str(resources.files("screening").joinpath("data", TABLE_FILE)))
+def table_path(relativistic: bool = False) -> Path:
+    """Path of the committed (non- or scalar-relativistic) table inside the installed package."""
+    name = RELATIVISTIC_TABLE_FILE if relativistic else TABLE_FILE
+    return Path(str(resources.files("screening").joinpath("data", name)))
 
 
 def _to_record(atom: AtomLevels) -> dict[str, Any]:
     """JSON-ready record of one atom; energies rounded to `ENERGY_DECIMALS` decimals of eV."""
-    return {
+    record: dict[str, Any] = {
         "element": atom.element,
         "Z": atom.Z,
         "configuration": atom.configuration,
@@ -49,6 +54,9 @@ def _to_record(atom: AtomLevels) -> dict[str, Any]:
             [lv.orbital, lv.occupation, round(lv.energy_eV, ENERGY_DECIMALS)] for lv in atom.levels
         ],
     }
+    if atom.valence_p_j_eV is not None:
+        record["valence_p_j_eV"] = [round(e, ENERGY_DECIMALS) for e in atom.valence_p_j_eV]
+    return record
 
 
 def _from_record(record: dict[str, Any]) -> AtomLevels:
@@ -57,49 +65,68 @@ def _from_record(record: dict[str, Any]) -> AtomLevels:
         Level(orbital, int(orbital[:-1]), "spdf".index(orbital[-1]), float(occ), float(e))
         for orbital, occ, e in record["levels"]
     )
+    pair = record.get("valence_p_j_eV")
     return AtomLevels(
         element=record["element"],
         Z=int(record["Z"]),
         configuration=record["configuration"],
         levels=levels,
         total_energy_eV=float(record["total_energy_eV"]),
+        relativistic=pair is not None,
+        valence_p_j_eV=None if pair is None else (float(pair[0]), float(pair[1])),
     )
 
 
-def compute_table(processes: int = 1) -> tuple[AtomLevels, ...]:
-    """Solve every atom H to Rn with the default settings.
+def _solve_both(z: int) -> tuple[AtomLevels, AtomLevels]:
+    """The non-relativistic and the scalar-relativistic solution of element ``z``."""
+    from screening.atoms.solver import solve_atom  # the solver (scipy) only when solving
+
+    return solve_atom(z), solve_atom(z, relativistic=True)
+
+
+def compute_tables(processes: int = 1) -> tuple[tuple[AtomLevels, ...], tuple[AtomLevels, ...]]:
+    """Solve every atom H to Rn with the default settings, non- and scalar-relativistically.
 
     Args:
         processes: Worker processes; 1 solves in this process.
 
     Returns:
-        The 86 atoms in order of Z.
+        (non-relativistic, scalar-relativistic): the 86 atoms of each in order of Z.
     """
     from multiprocessing import Pool
 
-    from screening.atoms.solver import solve_atom  # the solver (scipy) only when solving
-
     atomic_numbers = list(range(1, MAX_Z + 1))
     if processes <= 1:
-        return tuple(solve_atom(z) for z in atomic_numbers)
-    with Pool(processes) as pool:
-        # Heaviest first so that the slowest atoms do not finish last.
-        solved = pool.map(solve_atom, atomic_numbers[::-1], chunksize=1)
-    return tuple(solved[::-1])
+        solved = [_solve_both(z) for z in atomic_numbers]
+    else:
+        with Pool(processes) as pool:
+            # Heaviest first so that the slowest atoms do not finish last.
+            solved = pool.map(_solve_both, atomic_numbers[::-1], chunksize=1)[::-1]
+    return tuple(nr for nr, _ in solved), tuple(sr for _, sr in solved)
+
+
+_DESCRIPTION = (
+    "Kohn-Sham LDA orbital energies (eV) of the neutral atoms H to Rn: {scheme}, "
+    "spherical, spin-unpolarised, Slater exchange + VWN5 correlation, ground-state "
+    "configurations; every occupied level plus the unoccupied valence s and p. "
+    "Generated by `python -m screening.atoms.generate --write`; levels are "
+    "[orbital, occupation, energy_eV]."
+)
+_SR_SCHEME = (
+    "scalar-relativistic (scaled ZORA, van Lenthe, Baerends and Snijders, J. Chem. Phys. 101, "
+    "9783 (1994)); valence_p_j_eV is [E(p1/2), E(p3/2)] of the valence p level from the two "
+    "spin-orbit ZORA equations in the final scalar potential"
+)
 
 
 def table_document(atoms: Sequence[AtomLevels]) -> str:
     """Serialise the table: a header, then one atom per line."""
     from screening.atoms.solver import DEFAULT_SETTINGS
 
+    relativistic = bool(atoms) and atoms[0].relativistic
+    scheme = _SR_SCHEME if relativistic else "non-relativistic"
     header = {
-        "description": (
-            "Kohn-Sham LDA orbital energies (eV) of the neutral atoms H to Rn: non-relativistic, "
-            "spherical, spin-unpolarised, Slater exchange + VWN5 correlation, ground-state "
-            "configurations; every occupied level plus the unoccupied valence s and p. "
-            "Generated by `python -m screening.atoms.generate --write`; levels are "
-            "[orbital, occupation, energy_eV]."
-        ),
+        "description": _DESCRIPTION.format(scheme=scheme),
         "settings": asdict(DEFAULT_SETTINGS),
     }
     head = json.dumps(header, indent=1)[:-2]
@@ -107,10 +134,10 @@ def table_document(atoms: Sequence[AtomLevels]) -> str:
     return f'{head},\n "atoms": [\n  {rows}\n ]\n}}\n'
 
 
-@lru_cache(maxsize=1)
-def load_table() -> dict[int, AtomLevels]:
-    """Read the committed table once: Z -> AtomLevels."""
-    path = table_path()
+@lru_cache(maxsize=2)
+def load_table(relativistic: bool = False) -> dict[int, AtomLevels]:
+    """Read a committed table once: Z -> AtomLevels (scalar-relativistic if ``relativistic``)."""
+    path = table_path(relativistic)
     try:
         document = json.loads(path.read_text(encoding="utf-8"))
     except FileNotFoundError as exc:
@@ -120,7 +147,8 @@ def load_table() -> dict[int, AtomLevels]:
         ) from exc
     atoms = {int(rec["Z"]): _from_record(rec) for rec in document["atoms"]}
     expected = {z: conf for z, (_, conf) in enumerate(CONFIGURATIONS, start=1)}
-    if {z: a.configuration for z, a in atoms.items()} != expected:
+    kinds = {a.relativistic for a in atoms.values()}
+    if {z: a.configuration for z, a in atoms.items()} != expected or kinds != {relativistic}:
         raise RuntimeError(
             f"atomic level table {path} does not match screening.atoms.configurations; "
             "regenerate it with `python -m screening.atoms.generate --write`"
@@ -128,11 +156,13 @@ def load_table() -> dict[int, AtomLevels]:
     return atoms
 
 
-def atom_levels(symbol: str) -> AtomLevels:
+def atom_levels(symbol: str, *, relativistic: bool = False) -> AtomLevels:
     """Levels of one element from the committed table (no SCF run).
 
     Args:
         symbol: Element symbol, case-insensitive, of Z = 1 to 86 (H to Rn).
+        relativistic: Scalar-relativistic (scaled ZORA) levels with the valence p spin-orbit
+            pair instead of the non-relativistic ones.
 
     Returns:
         Every occupied level plus the unoccupied valence s and p, in eV.
@@ -140,30 +170,44 @@ def atom_levels(symbol: str) -> AtomLevels:
     Raises:
         UnknownElementError: Not a symbol of Z = 1 to 86.
     """
-    return load_table()[atomic_number(symbol)]
+    return load_table(relativistic)[atomic_number(symbol)]
 
 
-@lru_cache(maxsize=1)
-def _term_value_arrays() -> tuple[NDArray[np.float64], NDArray[np.float64]]:
-    """Valence s and p energies (eV) indexed by Z; index 0 is NaN."""
-    s_values = np.full(MAX_Z + 1, np.nan)
-    p_values = np.full(MAX_Z + 1, np.nan)
-    for z, atom in load_table().items():
+@lru_cache(maxsize=2)
+def _value_arrays(
+    relativistic: bool,
+) -> tuple[NDArray[np.float64], NDArray[np.float64], NDArray[np.float64]]:
+    """Valence s, valence p energies and Delta_p (eV) indexed by Z; index 0 is NaN.
+
+    Delta_p is NaN throughout for the non-relativistic table.
+    """
+    values = np.full((3, MAX_Z + 1), np.nan)
+    for z, atom in load_table(relativistic).items():
         valence_s, valence_p = valence_s_p(z)
-        s_values[z] = atom.level(valence_s.label).energy_eV
-        p_values[z] = atom.level(valence_p.label).energy_eV
-    s_values.flags.writeable = False
-    p_values.flags.writeable = False
-    return s_values, p_values
+        values[0, z] = atom.level(valence_s.label).energy_eV
+        values[1, z] = atom.level(valence_p.label).energy_eV
+        if atom.spin_orbit_splitting_eV is not None:
+            values[2, z] = atom.spin_orbit_splitting_eV
+    values.flags.writeable = False
+    return values[0], values[1], values[2]
 
 
 def clear_cache() -> None:
-    """Forget the loaded table (after the file was rewritten)."""
+    """Forget the loaded tables (after the files were rewritten)."""
     load_table.cache_clear()
-    _term_value_arrays.cache_clear()
+    _value_arrays.cache_clear()
 
 
-def term_values(symbols: Sequence[str] | str) -> tuple[NDArray[np.float64], NDArray[np.float64]]:
+def _indices(symbols: Sequence[str] | str) -> NDArray[np.intp]:
+    """Atomic numbers of ``symbols`` (a single symbol is accepted too)."""
+    if isinstance(symbols, str):
+        symbols = [symbols]
+    return np.fromiter((atomic_number(s) for s in symbols), dtype=np.intp, count=len(symbols))
+
+
+def term_values(
+    symbols: Sequence[str] | str, *, relativistic: bool = False
+) -> tuple[NDArray[np.float64], NDArray[np.float64]]:
     """Valence s and p term values (LDA orbital energies, eV) of many elements at once.
 
     The valence s and p are the ns and np levels of the element's period n (2p for H and He),
@@ -171,6 +215,8 @@ def term_values(symbols: Sequence[str] | str) -> tuple[NDArray[np.float64], NDAr
 
     Args:
         symbols: Element symbols of Z = 1 to 86 (a single symbol is accepted too).
+        relativistic: Scalar-relativistic (scaled ZORA, spin-orbit-free) levels instead of the
+            non-relativistic ones.
 
     Returns:
         (e_s, e_p): float arrays in eV, one entry per symbol, in the order given.
@@ -178,8 +224,27 @@ def term_values(symbols: Sequence[str] | str) -> tuple[NDArray[np.float64], NDAr
     Raises:
         UnknownElementError: A symbol that is not an element of Z = 1 to 86.
     """
-    if isinstance(symbols, str):
-        symbols = [symbols]
-    index = np.fromiter((atomic_number(s) for s in symbols), dtype=np.intp, count=len(symbols))
-    s_values, p_values = _term_value_arrays()
+    index = _indices(symbols)
+    s_values, p_values, _ = _value_arrays(relativistic)
     return s_values[index], p_values[index]
+
+
+def spin_orbit_splitting_eV(symbols: Sequence[str] | str) -> NDArray[np.float64]:
+    """Spin-orbit splitting Delta_p = E(p3/2) - E(p1/2) of the valence p level, eV.
+
+    From the scalar-relativistic table: the two ZORA spin-orbit equations (kappa = 1 and -2)
+    solved in the self-consistent scalar-relativistic LDA potential of the neutral atom, scaled
+    ZORA energies. The valence p is the one of `term_values` (empty for groups 1, 2 and 3 to 12);
+    0 for H and He, whose 2p is not bound. For one p electron or one p hole the ground-term
+    fine-structure splitting is Delta_p = (3/2) zeta_p.
+
+    Args:
+        symbols: Element symbols of Z = 1 to 86 (a single symbol is accepted too).
+
+    Returns:
+        Delta_p in eV, one entry per symbol, in the order given (positive).
+
+    Raises:
+        UnknownElementError: A symbol that is not an element of Z = 1 to 86.
+    """
+    return _value_arrays(True)[2][_indices(symbols)]

@@ -21,8 +21,15 @@ def test_json_lists_configuration_and_valence_levels(capsys: pytest.CaptureFixtu
     assert [(lv["orbital"], lv["occupation"]) for lv in zn["levels"]] == [("4s", 2.0), ("4p", 0.0)]
     assert zn["levels"][0]["energy_eV"] == atom_levels("Zn").level("4s").energy_eV
     assert zn["levels"][0]["energy_eV"] < zn["levels"][1]["energy_eV"] < 0
-    assert set(zn) == {"element", "configuration", "levels"}
-    assert set(zn["levels"][0]) == {"orbital", "occupation", "energy_eV"}
+    assert set(zn) == {"element", "configuration", "levels", "spin_orbit_splitting_eV"}
+    assert set(zn["levels"][0]) == {
+        "orbital", "occupation", "energy_eV", "scalar_relativistic_energy_eV"
+    }
+    # The scalar-relativistic level and the valence p spin-orbit splitting come from the
+    # relativistic table.
+    zn_sr = atom_levels("Zn", relativistic=True)
+    assert zn["levels"][0]["scalar_relativistic_energy_eV"] == zn_sr.level("4s").energy_eV
+    assert zn["spin_orbit_splitting_eV"] == zn_sr.spin_orbit_splitting_eV
     assert [lv["orbital"] for lv in payload[1]["levels"]] == ["4s", "4p"]
 
 
@@ -39,8 +46,11 @@ def test_text_output(capsys: pytest.CaptureFixture[str]) -> None:
     assert out[1].split()[:3] == ["5s", "occupation", "2"]
     assert out[2].split()[:3] == ["5p", "occupation", "0"] and "(unoccupied)" in out[2]
     assert f"{atom_levels('Cd').level('5s').energy_eV:.4f} eV" in out[1]
+    cd_sr = atom_levels("Cd", relativistic=True)
+    assert f"SR {cd_sr.level('5s').energy_eV:.4f} eV" in " ".join(out[1].split())
+    assert f"spin-orbit {cd_sr.spin_orbit_splitting_eV:.4f} eV" in out[2]
     assert out[3] == "H (Z = 1)  1s1"
-    assert "not bound" in out[5]
+    assert "not bound" in out[5] and "spin-orbit" not in out[5]
 
 
 def test_unknown_symbol_exits_2_with_one_line(capsys: pytest.CaptureFixture[str]) -> None:
