@@ -39,7 +39,7 @@ from screening.gap_features import D_REPULSION_WINDOW_EV, GapFeatures, standardi
 from screening.gap_kind import fit_kind, kind_inputs
 from screening.gap_validation import Validation, fit_gap, load_or_run
 from screening.temperature import gaps_at_temperature, wavelength_nm
-from screening.tight_binding import BandGaps, gaps, parameters_from_elements
+from screening.tight_binding import BandGaps, TightBindingParameters, gaps
 from screening.tight_binding.valleys import valleys
 
 D10_CATIONS: Final[frozenset[str]] = frozenset({"Cu", "Ag", "Zn", "Cd", "Hg", "Ga", "In", "Tl"})
@@ -65,16 +65,29 @@ def _spin_orbit_eV(table: CatalogueTable, tb_params) -> NDArray[np.float64]:  # 
         tb_params, spin_orbit_splitting_eV(anions), spin_orbit_splitting_eV(cations)), float)
 
 
-def physical_features(table: CatalogueTable) -> tuple[GapFeatures, BandGaps]:
-    """The estimator's features of every catalogue compound, and the band structure's gaps."""
+RELATIVISTIC: Final[bool] = True
+"""Band-structure features from scalar-relativistic (scaled ZORA) term values."""
+
+
+def physical_features(table: CatalogueTable, *, relativistic: bool = RELATIVISTIC
+                      ) -> tuple[GapFeatures, BandGaps]:
+    """The estimator's features of every catalogue compound, and the band structure's gaps.
+
+    Args:
+        table: the catalogue.
+        relativistic: scalar-relativistic term values (the default) or non-relativistic ones
+            (kept to measure what relativity brings).
+    """
     cations = [c.cation for c in table.compounds]
     anions = [c.anion for c in table.compounds]
-    params = parameters_from_elements(cations, anions, table.bond_length_used_angstrom)
+    eps_s_c, eps_p_c = term_values(cations, relativistic=relativistic)
+    eps_s_a, eps_p_a = term_values(anions, relativistic=relativistic)
+    params = TightBindingParameters(
+        eps_s_anion_eV=eps_s_a, eps_p_anion_eV=eps_p_a, eps_s_cation_eV=eps_s_c,
+        eps_p_cation_eV=eps_p_c, bond_length_angstrom=table.bond_length_used_angstrom)
     tb = gaps(params)
     sstar = valleys(params)
     delta0 = _spin_orbit_eV(table, params)
-    eps_s_c, _ = term_values(cations)
-    _, eps_p_a = term_values(anions)
     d_level = np.array([_filled_d_level_eV(c) for c in cations])
     depth = eps_p_a - d_level
     in_window = np.isfinite(depth) & (depth > 0) & (depth < D_REPULSION_WINDOW_EV)

@@ -130,3 +130,21 @@ def test_cross_validated_value_reported_for_measured_compounds() -> None:
     at = gaps_at(300.0)
     i = table.index("InP")
     assert np.isfinite(at.cross_validated_eV[i])
+
+
+@pytest.mark.xfail(strict=True, reason=(
+    "issue-11 targets not reached yet: nested leave-one-out MAE 0.50 eV (target 0.30), "
+    "fourfold III-V/II-VI 0.40 eV (0.25), largest error 3.6 eV for BaO (1.0), kind 39 of 61 "
+    "right (85 %)"))
+def test_issue_targets_for_the_gap_estimator() -> None:
+    model = gap_model()
+    table = catalogue_table()
+    four = np.array([c.family in ("III-V", "II-VI") and p == "fourfold"
+                     for c, p in zip(table.compounds, table.coordination_predicted, strict=True)])
+    known = np.isfinite(model.measured_300K_eV)
+    errors = np.abs(model.cross_validated_300K_eV - model.measured_300K_eV)
+    correct, total = model.kind_accuracy()
+    assert model.loo_mae_eV <= 0.30
+    assert np.mean(errors[known & four]) <= 0.25
+    assert model.loo_max_eV <= 1.0
+    assert correct >= 0.85 * total
