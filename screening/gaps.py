@@ -39,7 +39,7 @@ from screening.gap_features import D_REPULSION_WINDOW_EV, GapFeatures, standardi
 from screening.gap_kind import fit_kind, kind_inputs
 from screening.gap_validation import Validation, fit_gap, load_or_run
 from screening.temperature import gaps_at_temperature, wavelength_nm
-from screening.tight_binding import BandGaps, TightBindingParameters, gaps
+from screening.tight_binding import BandGaps, gaps, parameters_from_elements
 from screening.tight_binding.valleys import valleys
 
 D10_CATIONS: Final[frozenset[str]] = frozenset({"Cu", "Ag", "Zn", "Cd", "Hg", "Ga", "In", "Tl"})
@@ -80,11 +80,10 @@ def physical_features(table: CatalogueTable, *, relativistic: bool = RELATIVISTI
     """
     cations = [c.cation for c in table.compounds]
     anions = [c.anion for c in table.compounds]
-    eps_s_c, eps_p_c = term_values(cations, relativistic=relativistic)
-    eps_s_a, eps_p_a = term_values(anions, relativistic=relativistic)
-    params = TightBindingParameters(
-        eps_s_anion_eV=eps_s_a, eps_p_anion_eV=eps_p_a, eps_s_cation_eV=eps_s_c,
-        eps_p_cation_eV=eps_p_c, bond_length_angstrom=table.bond_length_used_angstrom)
+    params = parameters_from_elements(cations, anions, table.bond_length_used_angstrom,
+                                      relativistic=relativistic)
+    eps_s_c, _ = term_values(cations, relativistic=relativistic)
+    _, eps_p_a = term_values(anions, relativistic=relativistic)
     tb = gaps(params)
     sstar = valleys(params)
     delta0 = _spin_orbit_eV(table, params)

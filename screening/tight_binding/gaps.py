@@ -182,13 +182,19 @@ def parameters_from_elements(
     cations: list[str] | tuple[str, ...],
     anions: list[str] | tuple[str, ...],
     bond_length_angstrom: ArrayLike,
+    *,
+    relativistic: bool = True,
 ) -> TightBindingParameters:
     """Build parameters from element symbols with the engine's atomic term values.
+
+    The term values are scalar-relativistic (scaled ZORA, `screening.atoms`) by default, the
+    levels the band-gap estimator uses; ``relativistic=False`` gives the non-relativistic ones.
 
     Args:
         cations: Cation symbols, one per compound (for an element, the element itself).
         anions: Anion symbols, same length.
         bond_length_angstrom: Nearest-neighbour distances (angstrom), scalar or per compound.
+        relativistic: Scalar-relativistic term values (default) or non-relativistic ones.
 
     Returns:
         The parameters, with term values from ``screening.atoms.term_values``.
@@ -202,8 +208,8 @@ def parameters_from_elements(
         )
     from screening.atoms import term_values  # lazy: the atom solver is heavier
 
-    eps_s_c, eps_p_c = term_values(list(cations))
-    eps_s_a, eps_p_a = term_values(list(anions))
+    eps_s_c, eps_p_c = term_values(list(cations), relativistic=relativistic)
+    eps_s_a, eps_p_a = term_values(list(anions), relativistic=relativistic)
     return TightBindingParameters(
         eps_s_anion_eV=eps_s_a,
         eps_p_anion_eV=eps_p_a,

@@ -379,7 +379,7 @@ def test_parameters_from_elements_uses_atom_term_values(monkeypatch: pytest.Monk
     # stand-in for screening.atoms.term_values with explicit numbers (synthetic, no source)
     levels = {"Ga": (-8.9, -2.8), "As": (-14.3, -5.4)}
 
-    def term_values(symbols: list[str]) -> tuple[np.ndarray, np.ndarray]:
+    def term_values(symbols: list[str], relativistic: bool = False) -> tuple[np.ndarray, ...]:
         return (
             np.array([levels[s][0] for s in symbols]),
             np.array([levels[s][1] for s in symbols]),
