@@ -76,6 +76,7 @@ def band_gap_section(report: dict[str, Any]) -> Section:
     kind_item = dig(report, "measured.gap_kind") or {}
     has_measured = gap.get("measured_eV") is not None
     loo = gap.get("cross_validated_eV")
+    so = report.get("spin_orbit") or {}
     lines = [
         Line(f"Band gap at {temperature:g} K, measured", gap.get("measured_eV"), "eV",
              "measured at 300 K" + _moved(gap) if has_measured else "measured",
@@ -93,6 +94,8 @@ def band_gap_section(report: dict[str, Any]) -> Section:
              wavelength_nm=wavelength_of(loo), key="cross_validated"),
         Line("Gap kind", gap.get("kind"), "", gap.get("kind_source") or "",
              str(kind_item.get("source") or MODEL_LIMITS), key="kind"),
+        Line("Valence-band spin-orbit splitting Δ0", so.get("splitting_eV"), "eV",
+             str(so.get("route") or ""), str(so.get("source") or ""), key="spin_orbit"),
         Line("Temperature law", "assumed" if gap.get("temperature_law_assumed") else "published",
              "", "Varshni law: its shift from 300 K moves measured gap and estimate alike",
              gap.get("temperature_law") or "", key="temperature_law"),

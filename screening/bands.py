@@ -25,8 +25,9 @@ from screening.tight_binding import (
 )
 
 MODEL_LIMITS = (
-    "sp3 nearest-neighbour tight binding with universal parameters: conduction bands away "
-    "from Gamma are poor (no s* or d states), no spin-orbit splitting, no d bands; sixfold "
+    "sp3 nearest-neighbour tight binding with universal parameters and scalar-relativistic "
+    "term values: conduction bands away from Gamma are poor (no s* state in this chart), no "
+    "spin-orbit splitting in the bands (Delta0 is reported apart), no d states; sixfold "
     "compounds are treated as tetrahedral at their bond length."
 )
 

@@ -90,7 +90,8 @@ def _band_gap(table: CatalogueTable, at: GapsAt, i: int) -> dict[str, Any]:
         "semimetal": semimetal,
         "may_be_semimetal": bool(at.may_be_semimetal[i]),
         "kind": shown_kind,
-        "kind_source": "measured" if kind else KIND_ROUTE,
+        "kind_source": "measured" if kind else (
+            "estimate: the estimated gap is negative" if semimetal else KIND_ROUTE),
         "kind_estimate": model.kind_estimate[i],
         "indirect_probability": _float(model.indirect_probability[i]),
         "temperature_K": at.temperature_K,
