@@ -19,6 +19,10 @@ compound and for one nobody has made (no measured gap enters a feature):
   25 eV below the anion p level, else 0: the strength of the p-d repulsion that pushes the
   valence-band top up (second order in the p-d coupling).
 * ``d10``: 1 for a cation with a filled d shell close below the valence band, else 0.
+* ``cation_sp_eV``: the cation's p - s level splitting: the deeper its s level, the lower the
+  s-like conduction state at Gamma against the X and L states.
+* ``sixfold_known``: like ``sixfold``, but the observed coordination where the structure is
+  known (a measurement independent of the gap).
 
 `FEATURE_SETS` are the candidate models: each names the basis functions of the linear mean and
 the inputs of the Gaussian-process correction. The estimator chooses among them inside every
@@ -57,6 +61,8 @@ class GapFeatures:
     sixfold: NDArray[np.float64]
     d_repulsion: NDArray[np.float64]
     d10: NDArray[np.float64]
+    cation_sp_eV: NDArray[np.float64]
+    sixfold_known: NDArray[np.float64]
 
     def column(self, name: str) -> NDArray[np.float64]:
         """One feature, or a product "a*b" of two."""

@@ -82,7 +82,7 @@ def physical_features(table: CatalogueTable, *, relativistic: bool = RELATIVISTI
     anions = [c.anion for c in table.compounds]
     params = parameters_from_elements(cations, anions, table.bond_length_used_angstrom,
                                       relativistic=relativistic)
-    eps_s_c, _ = term_values(cations, relativistic=relativistic)
+    eps_s_c, eps_p_c = term_values(cations, relativistic=relativistic)
     _, eps_p_a = term_values(anions, relativistic=relativistic)
     tb = gaps(params)
     sstar = valleys(params)
@@ -109,6 +109,10 @@ def physical_features(table: CatalogueTable, *, relativistic: bool = RELATIVISTI
         sixfold=np.array([p == "sixfold" for p in table.coordination_predicted], float),
         d_repulsion=d_repulsion,
         d10=np.array([c in D10_CATIONS for c in cations], float),
+        cation_sp_eV=np.asarray(eps_p_c - eps_s_c, float),
+        sixfold_known=np.array([(o or p) == "sixfold" for o, p in
+                                zip(table.coordination_observed, table.coordination_predicted,
+                                    strict=True)], float),
     )
     return features, tb
 
