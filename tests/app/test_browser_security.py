@@ -135,6 +135,11 @@ def test_our_pages_cannot_be_framed_by_another_site(page: Page, live_server: str
     page.goto(evil_site.url)
     page.wait_for_load_state("load")
     framed = [f for f in page.frames if f != page.main_frame]
+    for _ in range(50):  # the refused frame may show its error page a moment after "load"
+        if len(framed) == 1 and framed[0].url.startswith("chrome-error://"):
+            break
+        page.wait_for_timeout(100)
+        framed = [f for f in page.frames if f != page.main_frame]
     assert len(framed) == 1 and framed[0].url.startswith("chrome-error://")
     assert refused == ["net::ERR_BLOCKED_BY_RESPONSE"]  # our headers, not chromium's own rules
 
