@@ -7,15 +7,20 @@ results for Z = 1 to 86 committed in ``screening/data/atomic_levels.json`` (non-
 and ``screening/data/atomic_levels_sr.json`` (scalar-relativistic).
 
 Public API:
-    `solve_atom` runs the SCF now; `atom_levels`, `term_values` and `spin_orbit_splitting_eV`
-    read the committed tables.
+    `solve_atom` runs the SCF now; `atom_levels`, `term_values`, `spin_orbit_splitting_eV` and
+    `lowest_d_level_eV` read the committed tables.
 """
 
 from typing import Any
 
-from screening.atoms.configurations import CONFIGURATIONS, MAX_Z, valence_s_p
+from screening.atoms.configurations import CONFIGURATIONS, MAX_Z, lowest_d_shell, valence_s_p
 from screening.atoms.levels import AtomLevels, Level
-from screening.atoms.table import atom_levels, spin_orbit_splitting_eV, term_values
+from screening.atoms.table import (
+    atom_levels,
+    lowest_d_level_eV,
+    spin_orbit_splitting_eV,
+    term_values,
+)
 
 _SOLVER_NAMES = {"solve_atom": "solver", "DEFAULT_SETTINGS": "solver", "ScfSettings": "scf"}
 
@@ -36,6 +41,8 @@ __all__ = [
     "Level",
     "ScfSettings",
     "atom_levels",
+    "lowest_d_level_eV",
+    "lowest_d_shell",
     "solve_atom",
     "spin_orbit_splitting_eV",
     "term_values",

@@ -248,6 +248,26 @@ def valence_s_p(z: int) -> tuple[Subshell, Subshell]:
     )
 
 
+def lowest_d_shell(z: int) -> Subshell:
+    """Return the d subshell that is the element's lowest d level, with its occupation.
+
+    The (n-1)d shell of an element of period n >= 4 (3d for periods 1 to 3, which have no
+    lower d): the outermost occupied d where that shell is occupied (Sc to Zn 3d, Ga to Kr 3d,
+    Pd 4d, Au 5d, ...), otherwise the lowest empty d (K and Ca 3d, Rb and Sr 4d, Cs, Ba and the
+    lanthanides without a 5d electron 5d, H to Ar 3d). Every d shell below it is full, so no
+    lower d level is empty.
+
+    Args:
+        z: Atomic number, 1 to 86.
+
+    Returns:
+        The d subshell (l = 2) with its ground-state occupation (0 if empty).
+    """
+    n_d = max(period(z) - 1, 3)
+    occupied = {(s.n, s.l): s.occupation for s in parse_configuration(configuration(z))}
+    return Subshell(n_d, 2, occupied.get((n_d, 2), 0.0))
+
+
 def subshells_to_solve(z: int) -> tuple[Subshell, ...]:
     """Return every occupied subshell of ``z`` plus its unoccupied valence s and p, by (n, l)."""
     shells = {(s.n, s.l): s for s in parse_configuration(configuration(z))}

@@ -12,6 +12,7 @@ Usage::
 from __future__ import annotations
 
 import argparse
+import math
 import sys
 import time
 from collections.abc import Sequence
@@ -38,6 +39,14 @@ def _compare(atoms: Sequence[AtomLevels], stored: dict[int, AtomLevels]) -> floa
             pairs.extend(zip(atom.valence_p_j_eV, old.valence_p_j_eV, strict=True))
         elif atom.valence_p_j_eV != old.valence_p_j_eV:
             return float("inf")
+        new_d, old_d = atom.lowest_d, old.lowest_d
+        if new_d is None or old_d is None or new_d.orbital != old_d.orbital:
+            return float("inf")
+        if math.isnan(new_d.energy_eV) or math.isnan(old_d.energy_eV):
+            if not (math.isnan(new_d.energy_eV) and math.isnan(old_d.energy_eV)):
+                return float("inf")
+        else:
+            pairs.append((new_d.energy_eV, old_d.energy_eV))
         worst = max(worst, max(abs(a - b) for a, b in pairs))
     return worst
 

@@ -43,6 +43,11 @@ class AtomLevels:
         valence_p_j_eV: Relativistic solutions only: energies in eV of the valence p level's
             j = 1/2 and j = 3/2 states, (E(p1/2), E(p3/2)), in the final scalar potential;
             (0, 0) where that p level is not bound.
+        lowest_d: The lowest d level (`screening.atoms.configurations.lowest_d_shell`): the
+            outermost occupied d (occupation > 0; the same level as in ``levels``) or, where
+            the (n-1)d shell is empty, the lowest unoccupied d eigenvalue of the final
+            self-consistent potential; energy NaN where the potential binds no such d state.
+            None only for results made without it.
     """
 
     element: str
@@ -52,6 +57,7 @@ class AtomLevels:
     total_energy_eV: float
     relativistic: bool = False
     valence_p_j_eV: tuple[float, float] | None = None
+    lowest_d: Level | None = None
 
     @property
     def spin_orbit_splitting_eV(self) -> float | None:

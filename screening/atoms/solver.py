@@ -22,11 +22,12 @@ from screening.atoms.configurations import (
     atomic_number,
     configuration,
     element_symbol,
+    lowest_d_shell,
     subshells_to_solve,
     valence_s_p,
 )
 from screening.atoms.levels import AtomLevels, Level
-from screening.atoms.radial import LogGrid
+from screening.atoms.radial import LogGrid, radial_eigenstates
 from screening.atoms.scf import GridSolution, ScfSettings, run_scf
 from screening.atoms.zora import zora_eigenstates
 from screening.constants import HARTREE_EV
@@ -65,6 +66,28 @@ def _p_spin_orbit_pair(
     return pair[0], pair[1]
 
 
+def _empty_d_level(
+    n_d: int, coarse: GridSolution, fine: GridSolution, relativistic: bool
+) -> float:
+    """Energy in hartree of the empty level n_d d in the final potentials, extrapolated.
+
+    The (n_d - 2)-th d state of each grid's self-consistent potential (scaled ZORA if
+    ``relativistic``), the same eigenvalue the SCF would give a zero-occupation d shell; NaN
+    if the fine grid's state is not bound (a box state at or above the vacuum level).
+    """
+    values = []
+    for solution in (coarse, fine):
+        if relativistic:
+            states = zora_eigenstates(solution.grid, solution.potential, 2, n_d - 2)
+            values.append(float(states.scaled[-1]))
+        else:
+            energies, _ = radial_eigenstates(solution.grid, solution.potential, 2, n_d - 2)
+            values.append(float(energies[-1]))
+    if values[1] >= 0.0:
+        return float("nan")
+    return _extrapolate(values[0], values[1])
+
+
 def solve_atom(
     symbol_or_z: str | int,
     settings: ScfSettings | None = None,
@@ -88,7 +111,10 @@ def solve_atom(
         Every occupied level and the unoccupied valence s and p levels in eV, and the total
         energy in eV. An unoccupied level that the atom's potential does not bind (the 2p of H
         and He) is reported at the vacuum level, 0 eV, the bottom of its continuum (its
-        spin-orbit pair too).
+        spin-orbit pair too). ``lowest_d`` is the lowest d level
+        (`screening.atoms.configurations.lowest_d_shell`): the outermost occupied d, or the
+        lowest empty d of the final potential, extrapolated like the other levels; its energy
+        is NaN where that empty d is not bound.
 
     Raises:
         UnknownElementError: Not an element of Z = 1 to 86.
@@ -125,4 +151,12 @@ def solve_atom(
         if (n_p, 1) not in unbound:
             j_half, j_three_halves = _p_spin_orbit_pair(n_p, coarse, fine)
         pair = (j_half * HARTREE_EV, j_three_halves * HARTREE_EV)
-    return AtomLevels(symbol, z, configuration(z), tuple(levels), total, relativistic, pair)
+    d_shell = lowest_d_shell(z)
+    if d_shell.occupation > 0.0:
+        lowest_d = next(lv for lv in levels if lv.orbital == d_shell.label)
+    else:
+        d_energy = _empty_d_level(d_shell.n, coarse, fine, relativistic) * HARTREE_EV
+        lowest_d = Level(d_shell.label, d_shell.n, 2, 0.0, d_energy)
+    return AtomLevels(
+        symbol, z, configuration(z), tuple(levels), total, relativistic, pair, lowest_d
+    )

@@ -187,6 +187,9 @@ def test_solver_reproduces_the_committed_table(symbol: str) -> None:
     for new, old in zip(solved.levels, stored.levels, strict=True):
         assert new.energy_eV == pytest.approx(old.energy_eV, abs=1e-6)
     assert solved.total_energy_eV == pytest.approx(stored.total_energy_eV, abs=1e-6)
+    assert solved.lowest_d is not None and stored.lowest_d is not None
+    assert solved.lowest_d.orbital == stored.lowest_d.orbital
+    np.testing.assert_allclose(solved.lowest_d.energy_eV, stored.lowest_d.energy_eV, atol=1e-6)
 
 
 def test_unoccupied_level_is_converged_in_the_grid_radius() -> None:

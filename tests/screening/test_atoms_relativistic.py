@@ -253,6 +253,9 @@ def test_relativistic_solver_reproduces_the_committed_table(symbol: str) -> None
         assert new.energy_eV == pytest.approx(old.energy_eV, abs=1e-6)
     assert solved.total_energy_eV == pytest.approx(stored.total_energy_eV, abs=1e-6)
     np.testing.assert_allclose(solved.valence_p_j_eV, stored.valence_p_j_eV, atol=1e-6)
+    assert solved.lowest_d is not None and stored.lowest_d is not None
+    assert solved.lowest_d.orbital == stored.lowest_d.orbital
+    np.testing.assert_allclose(solved.lowest_d.energy_eV, stored.lowest_d.energy_eV, atol=1e-6)
 
 
 def test_relativistic_1s_of_mercury_against_the_dirac_scale() -> None:
