@@ -18,6 +18,9 @@ compound and for one nobody has made (no measured gap enters a feature):
 * ``d_repulsion``: 1 / (anion p - cation d) in 1/eV for a cation with a filled d shell within
   25 eV below the anion p level, else 0: the strength of the p-d repulsion that pushes the
   valence-band top up (second order in the p-d coupling).
+* ``empty_d``: 1 / (cation's empty d level - its valence s level) in 1/eV for a cation whose
+  lowest d shell is empty and bound (Ca, Sr, Ba, Rb, Cs), else 0: a low empty d level pulls
+  the conduction band down away from Gamma (the alkaline-earth oxides and chalcogenides).
 * ``d10``: 1 for a cation with a filled d shell close below the valence band, else 0.
 * ``cation_sp_eV``: the cation's p - s level splitting: the deeper its s level, the lower the
   s-like conduction state at Gamma against the X and L states.
@@ -61,6 +64,7 @@ class GapFeatures:
     sixfold: NDArray[np.float64]
     d_repulsion: NDArray[np.float64]
     d10: NDArray[np.float64]
+    empty_d: NDArray[np.float64]
     cation_sp_eV: NDArray[np.float64]
     sixfold_known: NDArray[np.float64]
 
@@ -92,23 +96,23 @@ class FeatureSet:
 
 
 FEATURE_SETS: Final[tuple[FeatureSet, ...]] = (
-    FeatureSet("trend", ("physical_gap_eV",), ("polarity", "d_repulsion")),
+    FeatureSet("trend", ("physical_gap_eV",), ("polarity", "d_repulsion", "empty_d")),
     FeatureSet(
         "scaled",
         ("physical_gap_eV", "physical_gap_eV*polarity", "physical_gap_eV*d10"),
-        ("polarity", "d_repulsion"),
+        ("polarity", "d_repulsion", "empty_d"),
     ),
-    FeatureSet("trend, s*", ("sstar_gap_eV",), ("polarity", "d_repulsion")),
+    FeatureSet("trend, s*", ("sstar_gap_eV",), ("polarity", "d_repulsion", "empty_d")),
     FeatureSet(
         "scaled, s*",
         ("sstar_gap_eV", "sstar_gap_eV*polarity", "sstar_gap_eV*d10"),
-        ("polarity", "d_repulsion"),
+        ("polarity", "d_repulsion", "empty_d"),
     ),
     FeatureSet(
         "levels",
         ("physical_gap_eV", "cation_s_eV", "anion_p_eV", "inverse_d2", "sixfold",
          "physical_gap_eV*d10", "physical_gap_eV*polarity"),
-        ("polarity", "d_repulsion"),
+        ("polarity", "d_repulsion", "empty_d"),
     ),
 )
 """The candidate models, from the plainest to the richest."""

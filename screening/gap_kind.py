@@ -2,9 +2,10 @@
 
 The inputs (`kind_inputs`, from `screening.gap_features`): the cation's p - s level
 splitting (a deep cation s level pulls the s-like Gamma conduction state down), the
-coordination, the bond polarity, a filled cation d shell, and its p-d repulsion in a
-centrosymmetric crystal. The valley order of the sp3 and sp3s* models was tried as an input
-and classified worse (39 against 46 of 61 right in nested leave-one-out).
+coordination, the bond polarity, a filled cation d shell, its p-d repulsion in a
+centrosymmetric crystal, and a low empty cation d level (which pulls the X valley down). The
+valley order of the sp3 and sp3s* models was tried as an input and classified worse (39
+against 46 of 61 right in nested leave-one-out, before the empty d level was added).
 
 P(indirect) = sigma(w . z + w0), z the inputs standardised on the training rows; w minimises
 the log loss plus lambda |w|^2 / 2 (the constant is not penalised). lambda is chosen among
@@ -31,7 +32,7 @@ INNER_FOLDS: Final[int] = 5
 
 
 def kind_inputs(features: GapFeatures) -> NDArray[np.float64]:
-    """Cation p - s splitting (eV), sixfold, polarity, d10 cation, p-d repulsion if sixfold.
+    """Cation p - s splitting, sixfold, polarity, d10, p-d repulsion if sixfold, empty d.
 
     The last one is the p-d repulsion of a filled cation d shell in a centrosymmetric
     (rocksalt) crystal, where symmetry forbids it at Gamma and lets it push the valence-band
@@ -43,6 +44,7 @@ def kind_inputs(features: GapFeatures) -> NDArray[np.float64]:
         features.polarity,
         features.d10,
         features.sixfold_known * features.d_repulsion,
+        features.empty_d,
     ])
 
 

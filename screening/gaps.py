@@ -33,7 +33,7 @@ from typing import Final
 import numpy as np
 from numpy.typing import NDArray
 
-from screening.atoms import atom_levels, term_values
+from screening.atoms import atom_levels, lowest_d_level_eV, term_values
 from screening.evaluate import CatalogueTable, catalogue_table
 from screening.gap_features import D_REPULSION_WINDOW_EV, GapFeatures, standardise
 from screening.gap_kind import fit_kind, kind_inputs
@@ -50,6 +50,15 @@ def _filled_d_level_eV(symbol: str) -> float:
     """Energy of the outermost filled d shell of an atom (eV), NaN if it has none."""
     shells = [lv for lv in atom_levels(symbol).levels if lv.l == 2 and lv.occupation >= 9.5]
     return shells[-1].energy_eV if shells else float("nan")
+
+
+def _empty_d(cations: list[str], eps_s_eV: NDArray[np.float64], relativistic: bool
+             ) -> NDArray[np.float64]:
+    """1 / (empty d level - valence s level) of each cation, 1/eV; 0 where d is filled/unbound."""
+    level, occupied = lowest_d_level_eV(cations, relativistic=relativistic)
+    above = level - eps_s_eV
+    usable = np.isfinite(level) & ~occupied & (above > 0)
+    return np.where(usable, 1.0 / np.where(usable, above, 1.0), 0.0)
 
 
 def _spin_orbit_eV(table: CatalogueTable, tb_params) -> NDArray[np.float64]:  # noqa: ANN001
@@ -109,6 +118,7 @@ def physical_features(table: CatalogueTable, *, relativistic: bool = RELATIVISTI
         sixfold=np.array([p == "sixfold" for p in table.coordination_predicted], float),
         d_repulsion=d_repulsion,
         d10=np.array([c in D10_CATIONS for c in cations], float),
+        empty_d=_empty_d(cations, eps_s_c, relativistic),
         cation_sp_eV=np.asarray(eps_p_c - eps_s_c, float),
         sixfold_known=np.array([(o or p) == "sixfold" for o, p in
                                 zip(table.coordination_observed, table.coordination_predicted,

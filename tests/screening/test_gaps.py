@@ -133,9 +133,9 @@ def test_cross_validated_value_reported_for_measured_compounds() -> None:
 
 
 @pytest.mark.xfail(strict=True, reason=(
-    "issue-11 targets not reached yet: nested leave-one-out MAE 0.50 eV (target 0.30), "
-    "fourfold III-V/II-VI 0.40 eV (0.25), largest error 3.6 eV for BaO (1.0), kind 39 of 61 "
-    "right (85 %)"))
+    "issue-11 targets not all reached yet: nested leave-one-out MAE 0.50 eV (target 0.30), "
+    "fourfold III-V/II-VI 0.39 eV (0.25), largest error 3.4 eV for BaO (1.0); the kind "
+    "target (85 %) is met: 54 of 61"))
 def test_issue_targets_for_the_gap_estimator() -> None:
     model = gap_model()
     table = catalogue_table()
@@ -147,4 +147,12 @@ def test_issue_targets_for_the_gap_estimator() -> None:
     assert model.loo_mae_eV <= 0.30
     assert np.mean(errors[known & four]) <= 0.25
     assert model.loo_max_eV <= 1.0
+    assert correct >= 0.85 * total
+
+
+def test_direct_or_indirect_is_right_for_most_measured_compounds() -> None:
+    # Issue target (ours): the kind right for at least 85 % of the measured compounds, in
+    # nested leave-one-out (measured kinds: seed_data, Madelung 2004 and others, from memory).
+    correct, total = gap_model().kind_accuracy()
+    assert total >= 55
     assert correct >= 0.85 * total
