@@ -43,7 +43,7 @@ def _error_bar_text(model: dict[str, Any]) -> str:
 def _range(gap: dict[str, Any]) -> tuple[float, float | None] | None:
     """The estimate's wavelength range, where it is an estimate with a positive gap."""
     span = gap.get("wavelength_range_nm")
-    if not span or gap.get("semimetal"):
+    if not span:
         return None
     return (float(span[0]), None if span[1] is None else float(span[1]))
 

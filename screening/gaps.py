@@ -259,8 +259,9 @@ class GapsAt:
     the estimate moved to T; ``value_is_measured`` says which. ``semimetal`` is True for a
     measured semimetal and for a negative estimate; ``may_be_semimetal`` for an estimate whose
     range (value +/- uncertainty) reaches zero. ``wavelength_nm`` is NaN for both; the
-    wavelength range of an estimate is ``wavelength_short_nm`` to ``wavelength_long_nm``
-    (NaN long end where the range reaches zero).
+    wavelength range of every estimate (measured compounds included) is
+    ``wavelength_short_nm`` to ``wavelength_long_nm`` (NaN long end where the range reaches
+    zero, both NaN for a negative estimate).
     """
 
     temperature_K: float
@@ -308,9 +309,10 @@ def _gaps_at(temperature_K: float) -> GapsAt:
     high = estimate + model.uncertainty_eV
     may_be = ~has_measured & ~semimetal & (low <= 0)
     single = np.where(semimetal | may_be, np.nan, value)
+    estimate_semimetal = estimate <= 0
     with np.errstate(invalid="ignore"):
-        short = np.where(has_measured | semimetal, np.nan, wavelength_nm(np.maximum(high, 1e-9)))
-        long = np.where(has_measured | semimetal | (low <= 0), np.nan,
+        short = np.where(estimate_semimetal, np.nan, wavelength_nm(np.maximum(high, 1e-9)))
+        long = np.where(estimate_semimetal | (low <= 0), np.nan,
                         wavelength_nm(np.maximum(low, 1e-9)))
     result = GapsAt(
         temperature_K=float(temperature_K),

@@ -156,3 +156,13 @@ def test_direct_or_indirect_is_right_for_most_measured_compounds() -> None:
     correct, total = gap_model().kind_accuracy()
     assert total >= 55
     assert correct >= 0.85 * total
+
+
+def test_every_positive_estimate_has_its_wavelength_range() -> None:
+    # lambda = hc / E (common practice): the range of E +/- u maps to [hc/(E+u), hc/(E-u)].
+    gap = compound_report("GaAs")["band_gap"]
+    short, long = gap["wavelength_range_nm"]
+    estimate, u = gap["estimate_eV"], gap["uncertainty_eV"]
+    assert short == pytest.approx(1239.84 / (estimate + u), rel=1e-4)
+    assert long == pytest.approx(1239.84 / (estimate - u), rel=1e-4)
+    assert compound_report("HgTe")["band_gap"]["wavelength_range_nm"] is None  # E < 0
