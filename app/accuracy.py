@@ -36,8 +36,9 @@ LIMITS: tuple[str, ...] = (
     "structure's zincblende picture fits worst, and the largest errors sit there.",
     "Shallow d states: the filled d shells of Zn, Cd, Hg, Cu, Ag, Ga and In push the valence "
     "band up; the model has no d orbitals, only the p-d repulsion feature.",
-    "Relativistic Hg and Tl: the measured semimetals HgTe and HgSe are estimated above zero; "
-    "their measured values are what the pages show.",
+    "Relativistic Hg and Tl: with scalar-relativistic levels HgTe is estimated at a negative "
+    "gap (a semimetal) as measured, HgSe and α-Sn still slightly above zero; measured values "
+    "are what the pages show.",
     "The sp3s* conduction valleys use constants taken from silicon alone; the valley order "
     "is right for Si, GaP and AlAs but not for Ge and GaAs, so the direct/indirect verdict "
     "of an estimate is a classifier's, with the accuracy shown above.",
