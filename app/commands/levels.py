@@ -11,6 +11,8 @@ import argparse
 import json
 from typing import Any
 
+import numpy as np
+
 from screening.atoms import AtomLevels, atom_levels, spin_orbit_splitting_eV, valence_s_p
 
 
@@ -56,6 +58,15 @@ def _spin_orbit(atom: AtomLevels) -> float:
     return float(spin_orbit_splitting_eV(atom.element)[0])
 
 
+def _lowest_d(atom: AtomLevels) -> dict[str, Any] | None:
+    """The lowest d level (occupied shell or the lowest empty one), NR and SR; None if unbound."""
+    nr, sr = atom.lowest_d, atom_levels(atom.element, relativistic=True).lowest_d
+    if nr is None or sr is None or not np.isfinite(nr.energy_eV):
+        return None
+    return {"orbital": nr.orbital, "occupation": nr.occupation, "energy_eV": nr.energy_eV,
+            "scalar_relativistic_energy_eV": sr.energy_eV}
+
+
 def render_text(atoms: list[AtomLevels], show_all: bool) -> str:
     """Plain-text listing: one header line per element, one line per level."""
     lines: list[str] = []
@@ -73,6 +84,12 @@ def render_text(atoms: list[AtomLevels], show_all: bool) -> str:
                 f"  {level['energy_eV']:>12.4f} eV"
                 f"  SR {level['scalar_relativistic_energy_eV']:>12.4f} eV{note}"
             )
+        d = _lowest_d(atom)
+        if d is not None and not d["occupation"]:
+            lines.append(
+                f"  {d['orbital']:<3} occupation    0  {d['energy_eV']:>12.4f} eV"
+                f"  SR {d['scalar_relativistic_energy_eV']:>12.4f} eV  (lowest empty d)"
+            )
     return "\n".join(lines)
 
 
@@ -86,6 +103,7 @@ def run(args: argparse.Namespace) -> int:
                 "configuration": atom.configuration,
                 "levels": _shown_levels(atom, args.all),
                 "spin_orbit_splitting_eV": _spin_orbit(atom),
+                "lowest_d": _lowest_d(atom),
             }
             for atom in atoms
         ]

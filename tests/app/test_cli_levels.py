@@ -21,7 +21,9 @@ def test_json_lists_configuration_and_valence_levels(capsys: pytest.CaptureFixtu
     assert [(lv["orbital"], lv["occupation"]) for lv in zn["levels"]] == [("4s", 2.0), ("4p", 0.0)]
     assert zn["levels"][0]["energy_eV"] == atom_levels("Zn").level("4s").energy_eV
     assert zn["levels"][0]["energy_eV"] < zn["levels"][1]["energy_eV"] < 0
-    assert set(zn) == {"element", "configuration", "levels", "spin_orbit_splitting_eV"}
+    assert set(zn) == {"element", "configuration", "levels", "spin_orbit_splitting_eV",
+                       "lowest_d"}
+    assert zn["lowest_d"]["orbital"] == "3d" and zn["lowest_d"]["occupation"] == 10
     assert set(zn["levels"][0]) == {
         "orbital", "occupation", "energy_eV", "scalar_relativistic_energy_eV"
     }
@@ -81,3 +83,15 @@ def test_subprocess_json() -> None:
     payload = json.loads(result.stdout)
     assert payload[0]["element"] == "Hg"
     assert [lv["orbital"] for lv in payload[0]["levels"]] == ["6s", "6p"]
+
+
+def test_levels_show_the_lowest_empty_d_of_an_alkaline_earth(capsys) -> None:
+    # Ba: 6s2 ground state; its empty 5d lies between 6s and the vacuum (the 6s5d excited
+    # configurations lie about 1.1 eV up, NIST ASD, from memory).
+    assert main(["levels", "Ba", "--json"]) == 0
+    ba = json.loads(capsys.readouterr().out)[0]
+    d = ba["lowest_d"]
+    assert d["orbital"] == "5d" and d["occupation"] == 0
+    assert ba["levels"][0]["energy_eV"] < d["energy_eV"] < 0
+    assert main(["levels", "K"]) == 0  # K's 3d is not bound in LDA: no d line
+    assert "3d" not in capsys.readouterr().out
